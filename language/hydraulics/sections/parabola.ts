@@ -1,0 +1,38 @@
+/**
+ * Parabolic open channel (typical of grassed swales), given its top width Tr (m) at a reference depth yr (m).
+ * The bed is x = a sqrt(y) on each side with a = Tr / (2 sqrt(yr)), so T(y) = Tr sqrt(y / yr), A = 2/3 T y, and the
+ * centroid lies 2/5 y below the surface (Chow 1959, Table 2-1). The wetted perimeter is the exact arc length
+ * P = X sqrt(1 + k^2 X^2) + asinh(k X) / k with X = T/2 and k = 2 / a^2 (twice the arc length of y = x^2 / a^2).
+ */
+import type { SectionGeometry } from './section-geometry.js';
+
+export interface ParabolaDimensions {
+  readonly topWidthM: number;
+  readonly atDepthM: number;
+}
+
+export function parabolaSection({ topWidthM: referenceTopWidthM, atDepthM: referenceDepthM }: ParabolaDimensions): SectionGeometry {
+  const halfWidthCoefficient = referenceTopWidthM / (2 * Math.sqrt(referenceDepthM)); // a, m^(1/2)
+  const curvature = 2 / (halfWidthCoefficient * halfWidthCoefficient); // k, 1/m
+  const topWidthM = (y: number): number => referenceTopWidthM * Math.sqrt(Math.max(y, 0) / referenceDepthM);
+  return {
+    shape: 'parabola',
+    description: `parabola, top width ${Number(referenceTopWidthM.toPrecision(4))} m at depth ${Number(referenceDepthM.toPrecision(4))} m`,
+    fullDepthM: undefined,
+    areaM2: (y) => (2 / 3) * topWidthM(y) * y,
+    wettedPerimeterM: (y) => {
+      const halfWidthM = topWidthM(y) / 2;
+      const kx = curvature * halfWidthM;
+      return halfWidthM * Math.sqrt(1 + kx * kx) + Math.asinh(kx) / curvature;
+    },
+    topWidthM,
+    firstMomentM3: (y) => (4 / 15) * topWidthM(y) * y * y,
+    // dP/dy = 2 sqrt(1 + (dx/dy)^2) with dx/dy = a / (2 sqrt y).
+    wettedPerimeterSlope: (y) => {
+      if (y <= 0) return Number.POSITIVE_INFINITY;
+      const dxdy = halfWidthCoefficient / (2 * Math.sqrt(y));
+      return 2 * Math.sqrt(1 + dxdy * dxdy);
+    },
+    topWidthSlope: (y) => (y > 0 ? topWidthM(y) / (2 * y) : Number.POSITIVE_INFINITY),
+  };
+}
