@@ -1,0 +1,185 @@
+/**
+ * The analysis model: what Runnel computed for one design document. Every view (diagnostics, inlay hints, hover,
+ * the report, `runnel check --format json`, `runnel diff`) reads this one structure, computed once per document
+ * version. All numbers are SI; the unit is part of each field name (`normalDepth_m`), so the JSON output is this
+ * model serialised as it is. Values that do not exist are `null`, never NaN.
+ */
+import type { Dimension, UnitSystem } from '../units/units.js';
+
+/** Position in a document: zero-based line and UTF-16 character, as in LSP. */
+export interface SourcePosition {
+  readonly line: number;
+  readonly character: number;
+}
+
+export interface SourceRange {
+  readonly start: SourcePosition;
+  readonly end: SourcePosition;
+}
+
+/** A place in a file: the document URI and a range in it. */
+export interface SourceLocation {
+  readonly uri: string;
+  readonly range: SourceRange;
+}
+
+/** How a result was obtained, shown identically by hover, report and CLI. */
+export interface Provenance {
+  /** e.g. "Manning's equation (SI, k = 1), normal depth by safeguarded Newton iteration". */
+  readonly method: string;
+  /** e.g. "steady flow", "uniform flow in a long prismatic reach", "kinetic-energy coefficient alpha = 1". */
+  readonly assumptions: readonly string[];
+  /** Published sources, e.g. "Chow (1959) Open-Channel Hydraulics, Sec. 5-6". */
+  readonly references: readonly string[];
+}
+
+export type Severity = 'error' | 'warning' | 'information';
+
+/** A check outcome for people: pass, or the worst severity of its findings. */
+export type CheckStatus = 'pass' | 'information' | 'warning' | 'fail';
+
+/**
+ * One finding of the analysis. `code` is stable kebab-case (e.g. `overtopping`, `freeboard-below-required`,
+ * `supercritical-flow`, `near-critical-flow`, `velocity-above-permissible`, `shear-above-permissible`,
+ * `velocity-below-self-cleansing`, `conduit-over-capacity`, `conduit-two-depth-zone`, `no-normal-depth`).
+ */
+export interface Finding {
+  readonly code: string;
+  readonly severity: Severity;
+  /** One or two sentences with numbers and units in the document's display units. */
+  readonly message: string;
+  readonly location: SourceLocation;
+  readonly channel: string | null;
+  readonly reach: string | null;
+  readonly flow: string | null;
+  /** Other places involved, e.g. the lining whose limit is exceeded. */
+  readonly related: readonly { readonly message: string; readonly location: SourceLocation }[];
+  /** Values a quick fix or a diff needs, SI, unit in the key (e.g. { required_m: 0.15, actual_m: 0.08 }). */
+  readonly data: Readonly<Record<string, number | string>>;
+}
+
+/** The hydraulic state at one depth (mirrors language/hydraulics HydraulicState, with unit-suffixed names). */
+export interface StateResult {
+  readonly depth_m: number;
+  readonly area_m2: number;
+  readonly wettedPerimeter_m: number;
+  readonly topWidth_m: number;
+  readonly hydraulicRadius_m: number;
+  readonly hydraulicDepth_m: number;
+  readonly velocity_mps: number;
+  readonly froudeNumber: number;
+  readonly specificEnergy_m: number;
+  readonly specificForce_m3: number;
+}
+
+/** The results of one design flow in one reach. */
+export interface FlowResult {
+  /** Flow name as written in the file, e.g. `q100`. */
+  readonly flow: string;
+  /** Its description, e.g. "100-year storm", or null. */
+  readonly description: string | null;
+  readonly discharge_m3s: number;
+  /** Where the flow is defined (a flows block or the reach's own flow). */
+  readonly flowLocation: SourceLocation;
+  /** Uniform flow at normal depth; null when there is none (see normalDepthNote). */
+  readonly normal: StateResult | null;
+  /** Why there is no normal depth, or a remark on it (the lower of two depths near a conduit crown); null if none. */
+  readonly normalDepthNote: string | null;
+  readonly critical: StateResult | null;
+  /** Bed slope on which this flow would be critical, m/m. */
+  readonly criticalSlope: number | null;
+  readonly regime: 'subcritical' | 'critical' | 'supercritical' | null;
+  readonly slopeClass: 'mild' | 'critical' | 'steep' | 'horizontal' | 'adverse';
+  /** gamma y S at normal depth, Pa. */
+  readonly maxShear_Pa: number | null;
+  /** gamma R S at normal depth, Pa. */
+  readonly averageShear_Pa: number | null;
+  /** Bank (or crown) height minus normal depth, m; negative when over-topped. */
+  readonly freeboard_m: number | null;
+  /** Freeboard the criteria require at this flow, m. */
+  readonly requiredFreeboard_m: number | null;
+  readonly status: CheckStatus;
+  /** Findings about this reach and flow (also listed in DesignAnalysis.findings). */
+  readonly findings: readonly Finding[];
+}
+
+export type SectionShapeName = 'rectangle' | 'trapezoid' | 'triangle' | 'parabola' | 'circle';
+
+export interface SectionResult {
+  readonly name: string;
+  readonly shape: SectionShapeName;
+  /** Shape dimensions in SI with unit-suffixed keys, e.g. { bottomWidth_m, leftSideSlope_HV, rightSideSlope_HV }. */
+  readonly dimensions: Readonly<Record<string, number>>;
+  /** Bank height of an open section (the depth at which it over-tops), m; null when not given. */
+  readonly bankDepth_m: number | null;
+  /** Inside height of a closed conduit, m; null for open sections. */
+  readonly fullDepth_m: number | null;
+  readonly location: SourceLocation;
+}
+
+export interface LiningResult {
+  readonly name: string;
+  readonly manningN: number;
+  readonly maxVelocity_mps: number | null;
+  readonly maxShear_Pa: number | null;
+  readonly description: string | null;
+  readonly location: SourceLocation;
+}
+
+/** The criteria in force for a reach after project-wide values and reach overrides are merged, SI. */
+export interface ResolvedCriteria {
+  /** A fixed freeboard, m, or the USBR rule F = sqrt(C y); null if none is required. */
+  readonly freeboard: { readonly kind: 'fixed'; readonly height_m: number } | { readonly kind: 'usbr-rule'; readonly coefficientC_SI: number | null } | null;
+  /** Near-critical Froude band to avoid. */
+  readonly avoidFroude: { readonly low: number; readonly high: number };
+  /** Self-cleansing minimum velocity, m/s; null if none. */
+  readonly minVelocity_mps: number | null;
+  /** Where each value came from: 'default', 'design' or 'reach'. */
+  readonly origin: Readonly<Record<string, 'default' | 'design' | 'reach'>>;
+}
+
+export interface ReachResult {
+  readonly channel: string;
+  readonly name: string;
+  readonly location: SourceLocation;
+  readonly section: SectionResult;
+  readonly lining: LiningResult;
+  /** Bed slope, m/m (positive downhill). */
+  readonly slope: number;
+  readonly length_m: number;
+  readonly upstreamInvert_m: number | null;
+  readonly downstreamInvert_m: number | null;
+  /** Uniform-flow discharge at bank-full depth (open) or full pipe (closed), m3/s; null when no bank height. */
+  readonly bankfullCapacity_m3s: number | null;
+  readonly criteria: ResolvedCriteria;
+  readonly flows: readonly FlowResult[];
+  /** Worst status over its flows. */
+  readonly status: CheckStatus;
+  readonly provenance: Provenance;
+}
+
+export interface ChannelResult {
+  readonly name: string;
+  readonly location: SourceLocation;
+  /** Outlet condition: free fall (critical depth at the brink), a given water level (m), or normal depth. */
+  readonly outlet: { readonly kind: 'free-fall' } | { readonly kind: 'water-level'; readonly elevation_m: number } | { readonly kind: 'normal-depth' } | null;
+  readonly reaches: readonly ReachResult[];
+}
+
+export interface DesignAnalysis {
+  readonly uri: string;
+  readonly title: string;
+  readonly notes: readonly string[];
+  readonly displayUnits: UnitSystem;
+  readonly channels: readonly ChannelResult[];
+  /** Every finding, in document order. */
+  readonly findings: readonly Finding[];
+  /** The short caution that every report and CLI output carries. */
+  readonly caution: string;
+  /** Assumptions behind every number, for the report's assumptions section. */
+  readonly assumptions: readonly string[];
+  readonly provenance: Provenance;
+}
+
+/** The quantity kinds the views format, used to pick display units. */
+export type QuantityDimension = Dimension;
