@@ -115,6 +115,8 @@ export interface SectionResult {
   /** Inside height of a closed conduit, m; null for open sections. */
   readonly fullDepth_m: number | null;
   readonly location: SourceLocation;
+  /** The section's description as written, e.g. "Standard V ditch"; null if none. Added by the language work (optional so hand-made results stay valid). */
+  readonly description?: string | null;
 }
 
 export interface LiningResult {
@@ -124,6 +126,8 @@ export interface LiningResult {
   readonly maxShear_Pa: number | null;
   readonly description: string | null;
   readonly location: SourceLocation;
+  /** Where the lining's values come from, as written in its `source "..."` line; null if none. Added by the language work (optional so hand-made results stay valid). */
+  readonly source?: string | null;
 }
 
 /** The criteria in force for a reach after project-wide values and reach overrides are merged, SI. */
@@ -134,6 +138,11 @@ export interface ResolvedCriteria {
   readonly avoidFroude: { readonly low: number; readonly high: number };
   /** Self-cleansing minimum velocity, m/s; null if none. */
   readonly minVelocity_mps: number | null;
+  /**
+   * How far past a lining's permissible velocity or shear a warning becomes an error, as a fraction of the
+   * permissible value (0.2 = 20 %). Added by the language work.
+   */
+  readonly limitMargin: number;
   /** Where each value came from: 'default', 'design' or 'reach'. */
   readonly origin: Readonly<Record<string, 'default' | 'design' | 'reach'>>;
 }
@@ -141,7 +150,10 @@ export interface ResolvedCriteria {
 export interface ReachResult {
   readonly channel: string;
   readonly name: string;
+  /** The whole `reach ... { }` block. */
   readonly location: SourceLocation;
+  /** Just the reach's name (where findings point). Added by the language work. */
+  readonly nameLocation: SourceLocation;
   readonly section: SectionResult;
   readonly lining: LiningResult;
   /** Bed slope, m/m (positive downhill). */
@@ -161,6 +173,8 @@ export interface ReachResult {
 export interface ChannelResult {
   readonly name: string;
   readonly location: SourceLocation;
+  /** The channel's description as written; null if none. Added by the language work (optional so hand-made results stay valid). */
+  readonly description?: string | null;
   /** Outlet condition: free fall (critical depth at the brink), a given water level (m), or normal depth. */
   readonly outlet: { readonly kind: 'free-fall' } | { readonly kind: 'water-level'; readonly elevation_m: number } | { readonly kind: 'normal-depth' } | null;
   readonly reaches: readonly ReachResult[];
@@ -179,6 +193,36 @@ export interface DesignAnalysis {
   /** Assumptions behind every number, for the report's assumptions section. */
   readonly assumptions: readonly string[];
   readonly provenance: Provenance;
+  /** The document version analysed (LSP text-document version). Added by the language work. */
+  readonly version: number;
+  /** A design, or a library of shared linings and sections (no channels). Added by the language work. */
+  readonly kind: 'design' | 'library';
+  /** Whether displayUnits came from the file's `units` setting or was inferred from the units most used in it. */
+  readonly displayUnitsOrigin: 'setting' | 'inferred';
+  /** The design's named flows as defined in its flow tables (a channel or reach may give its own values). */
+  readonly flows: readonly DesignFlowResult[];
+  /** The design-level criteria in force (reaches may override them; see ReachResult.criteria). */
+  readonly criteria: ResolvedCriteria;
+  /** Reaches that could not be analysed because the file is incomplete there; validation reports why. */
+  readonly incompleteReaches: readonly IncompleteReach[];
+}
+
+/** A named flow of the design. Added by the language work. */
+export interface DesignFlowResult {
+  readonly name: string;
+  readonly description: string | null;
+  /** Discharge from the flow table, m3/s; null when each channel gives its own. */
+  readonly discharge_m3s: number | null;
+  readonly location: SourceLocation;
+}
+
+/** A reach left out of the analysis. Added by the language work. */
+export interface IncompleteReach {
+  readonly channel: string;
+  readonly reach: string;
+  /** Plain words, e.g. "it has no lining". */
+  readonly reason: string;
+  readonly location: SourceLocation;
 }
 
 /** The quantity kinds the views format, used to pick display units. */

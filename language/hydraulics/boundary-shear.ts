@@ -11,6 +11,11 @@ export interface BoundaryShear {
   readonly maximumPa: number;
 }
 
+/**
+ * Average and maximum boundary shear, Pa, for a depth y (m, the deepest point of the section), hydraulic radius R (m)
+ * and slope S (m/m; the bed slope in uniform flow, or the friction slope in varied flow). Plain formulas: no
+ * side-slope factor (HEC-15's K1 for shear on the banks belongs to the lining check).
+ */
 export function boundaryShear(depthM: number, hydraulicRadiusM: number, bedSlope: number): BoundaryShear {
   return {
     averagePa: UNIT_WEIGHT_OF_WATER_NM3 * hydraulicRadiusM * bedSlope,

@@ -11,6 +11,9 @@ export const UNIT_WEIGHT_OF_WATER_NM3 = 9810;
 /**
  * Relative tolerance on the defining equation of a depth solve: normal depth stops when
  * |Q(y) - Q| <= tolerance x Q; critical depth when |Z(y) - Z| <= tolerance x Z, Z = A sqrt(A/T) the section factor.
+ * The one exception is a root where F changes faster than adjacent doubles can resolve (a critical depth within
+ * about 5e-7 D of a conduit crown): there the depth returned is pinned between two adjacent doubles, F evaluated on
+ * both sides of the target.
  */
 export const DEPTH_SOLVE_RELATIVE_TOLERANCE = 1e-10;
 

@@ -7,8 +7,8 @@
  * - specific force (momentum function) M = Q^2 / (g A) + A ybar, ybar the centroid depth below the surface;
  * - critical slope Sc: the bed slope on which normal depth equals critical depth for a given Q and n.
  */
-import { CRITICAL_MATCH_RELATIVE_TOLERANCE, GRAVITY_MS2 } from './constants.js';
-import { solveIncreasingRoot } from './depth-solver.js';
+import { CRITICAL_MATCH_RELATIVE_TOLERANCE, DEPTH_SOLVE_RELATIVE_TOLERANCE, GRAVITY_MS2 } from './constants.js';
+import { iterateDepth, SECTION_FACTOR_SQUARED } from './depth-iteration.js';
 import { conveyance } from './uniform-flow.js';
 import type { SectionGeometry } from './sections/section-geometry.js';
 
@@ -22,50 +22,75 @@ export type CriticalDepthResult =
       readonly evaluations: number;
     };
 
-/** Solves Q^2 T = g A^3 for critical depth, m. Tolerance: |Z(y) - Z| <= 1e-10 Z with Z = A sqrt(A/T). */
+// Acceptance window on Z^2 / Z_target^2 equivalent to |Z - Z_target| <= tolerance x Z_target.
+const ACCEPT_LOW_SECTION_FACTOR_SQUARED = (1 - DEPTH_SOLVE_RELATIVE_TOLERANCE) ** 2;
+const ACCEPT_HIGH_SECTION_FACTOR_SQUARED = (1 + DEPTH_SOLVE_RELATIVE_TOLERANCE) ** 2;
+const SMALLEST_NORMAL_DOUBLE = 2.2250738585072014e-308;
+
+/**
+ * Solves Q^2 T = g A^3 for critical depth, m (g = 9.80665 m/s2, alpha = 1).
+ * Tolerance: |Z(y) - Z| <= 1e-10 Z with Z = A sqrt(A/T) the section factor and Z = Q / sqrt(g) the target. Within
+ * about 5e-7 D of a conduit crown Z changes faster than adjacent doubles can resolve; there the result is the depth
+ * pinned between two adjacent doubles with the root between them. A root closer to the crown than one rounding step
+ * is reported as not converged (the conduit cannot pass that flow with a free surface). Bad numbers and bad section
+ * dimensions give 'invalid-input'; never NaN, never an exception.
+ */
 export function solveCriticalDepth(section: SectionGeometry, dischargeM3s: number): CriticalDepthResult {
   if (!(dischargeM3s > 0 && Number.isFinite(dischargeM3s))) {
     return { converged: false, reason: 'invalid-input', message: 'Discharge must be a positive finite number.', iterations: 0, evaluations: 0 };
   }
+  if (section.dimensionProblem !== undefined) {
+    return { converged: false, reason: 'invalid-input', message: section.dimensionProblem, iterations: 0, evaluations: 0 };
+  }
   const targetSectionFactor = dischargeM3s / Math.sqrt(GRAVITY_MS2);
-  // A closed conduit's section factor grows without bound as the surface narrows to the crown, so the root lies
-  // below the crown; the last sliver is excluded to keep T > 0.
-  const upperDepthM = section.fullDepthM === undefined ? undefined : section.fullDepthM * (1 - 1e-9);
-  const outcome = solveIncreasingRoot({
-    evaluate: (y) => {
-      const areaM2 = section.areaM2(y);
-      const topWidthM = section.topWidthM(y);
-      const value = areaM2 * Math.sqrt(areaM2 / topWidthM);
-      // d ln Z / dy = 3T / (2A) - T' / (2T).
-      const slope = value * ((3 * topWidthM) / (2 * areaM2) - section.topWidthSlope(y) / (2 * topWidthM));
-      return { value, slope };
-    },
-    target: targetSectionFactor,
-    initialDepthM: initialCriticalDepthGuessM(section, dischargeM3s, upperDepthM),
-    upperDepthM,
-    crownDepthM: section.fullDepthM,
-  });
-  if (!outcome.converged) {
+  const targetSquared = targetSectionFactor * targetSectionFactor;
+  if (!(targetSquared >= SMALLEST_NORMAL_DOUBLE && Number.isFinite(targetSquared))) {
     return {
       converged: false,
-      reason: 'did-not-converge',
-      message: `Critical-depth iteration did not converge in ${outcome.iterations} steps.`,
-      iterations: outcome.iterations,
-      evaluations: outcome.evaluations,
+      reason: 'invalid-input',
+      message: `A discharge of ${dischargeM3s.toPrecision(3)} m3/s is outside the range the engine computes in.`,
+      iterations: 0,
+      evaluations: 0,
     };
+  }
+  // A closed conduit's section factor grows without bound as the surface narrows to the crown (T -> 0), so the
+  // root always lies below the crown, which bounds the bracket.
+  const fullDepthM = section.fullDepthM;
+  const estimateM =
+    section.solverHints?.criticalDepthEstimateM?.(targetSectionFactor) ?? genericCriticalDepthEstimateM(section, dischargeM3s, fullDepthM);
+  const outcome = iterateDepth(
+    SECTION_FACTOR_SQUARED,
+    section,
+    undefined,
+    targetSquared,
+    ACCEPT_LOW_SECTION_FACTOR_SQUARED,
+    ACCEPT_HIGH_SECTION_FACTOR_SQUARED,
+    estimateM,
+    fullDepthM ?? Number.POSITIVE_INFINITY,
+    fullDepthM ?? 0,
+  );
+  if (!outcome.converged) {
+    const message =
+      outcome.failure === 'bound'
+        ? `Critical depth for ${dischargeM3s.toPrecision(4)} m3/s lies at the crown to within rounding: the conduit cannot pass this flow with a free surface.`
+        : `Critical-depth iteration stopped without meeting its tolerance after ${outcome.iterations} steps (last depth ${outcome.depthM.toPrecision(6)} m).`;
+    return { converged: false, reason: 'did-not-converge', message, iterations: outcome.iterations, evaluations: outcome.evaluations };
   }
   return { converged: true, depthM: outcome.depthM, iterations: outcome.iterations, evaluations: outcome.evaluations };
 }
 
-/** Starting depth: the rectangular closed form (q^2/g)^(1/3) with the section's top width at 1 m depth. */
-function initialCriticalDepthGuessM(section: SectionGeometry, dischargeM3s: number, upperDepthM: number | undefined): number {
-  if (upperDepthM !== undefined) return upperDepthM / 2;
+/** Starting depth without a shape estimate: the rectangular closed form with the top width at 1 m depth. */
+function genericCriticalDepthEstimateM(section: SectionGeometry, dischargeM3s: number, fullDepthM: number | undefined): number {
+  if (fullDepthM !== undefined) return fullDepthM / 2;
   const unitDischarge = dischargeM3s / section.topWidthM(1);
   const guessM = Math.cbrt((unitDischarge * unitDischarge) / GRAVITY_MS2);
   return Number.isFinite(guessM) && guessM > 0 ? guessM : 1;
 }
 
-/** Froude number V / sqrt(g A / T) at a depth; dimensionless. */
+/**
+ * Froude number V / sqrt(g A / T) at a depth; dimensionless. Depth in m (> 0; for a conduit at most its full depth,
+ * where T = 0 gives 0: no free surface), discharge in m3/s. The point functions below share these preconditions.
+ */
 export function froudeNumber(section: SectionGeometry, depthM: number, dischargeM3s: number): number {
   const areaM2 = section.areaM2(depthM);
   const velocityMs = dischargeM3s / areaM2;
@@ -87,7 +112,10 @@ export type CriticalSlopeResult =
   | { readonly converged: true; readonly slope: number; readonly criticalDepthM: number }
   | { readonly converged: false; readonly reason: 'invalid-input' | 'did-not-converge'; readonly message: string };
 
-/** Critical slope Sc = (Q n / K(yc))^2, m/m, for discharge Q (m3/s) and Manning's n. */
+/**
+ * Critical slope Sc = (Q n / K(yc))^2, m/m: the bed slope on which normal depth equals critical depth for discharge
+ * Q (m3/s) and Manning's n (Chow 1959, Ch. 6, from memory). Outcomes as for solveCriticalDepth.
+ */
 export function criticalSlope(section: SectionGeometry, dischargeM3s: number, manningN: number): CriticalSlopeResult {
   if (!(manningN > 0 && Number.isFinite(manningN))) {
     return { converged: false, reason: 'invalid-input', message: "Manning's n must be a positive finite number." };
@@ -95,6 +123,9 @@ export function criticalSlope(section: SectionGeometry, dischargeM3s: number, ma
   const critical = solveCriticalDepth(section, dischargeM3s);
   if (!critical.converged) return { converged: false, reason: critical.reason, message: critical.message };
   const slope = ((dischargeM3s * manningN) / conveyance(section, critical.depthM)) ** 2;
+  if (!(slope > 0 && Number.isFinite(slope))) {
+    return { converged: false, reason: 'did-not-converge', message: 'Critical slope is outside the range the engine computes in.' };
+  }
   return { converged: true, slope, criticalDepthM: critical.depthM };
 }
 
@@ -111,11 +142,14 @@ export type SlopeClass = 'mild' | 'critical' | 'steep' | 'horizontal' | 'adverse
 /**
  * Bed-slope class for a given flow (Chow 1959, Sec. 9-2): horizontal (S = 0), adverse (S < 0), otherwise mild when
  * normal depth exceeds critical depth, steep when it is below, critical when they match within rounding.
+ * `normalDepthM` undefined on a falling bed means no free-surface uniform flow exists because the flow exceeds a
+ * conduit's uniform-flow capacity: its uniform-flow grade line lies above the crown and so above critical depth
+ * (which is always below the crown), which is the mild case. Depths in m, slope in m/m.
  */
 export function classifySlope(bedSlope: number, normalDepthM: number | undefined, criticalDepthM: number): SlopeClass {
   if (bedSlope === 0) return 'horizontal';
   if (bedSlope < 0) return 'adverse';
-  if (normalDepthM === undefined) return 'steep';
+  if (normalDepthM === undefined) return 'mild';
   if (Math.abs(normalDepthM - criticalDepthM) <= CRITICAL_MATCH_RELATIVE_TOLERANCE * criticalDepthM) return 'critical';
   return normalDepthM > criticalDepthM ? 'mild' : 'steep';
 }

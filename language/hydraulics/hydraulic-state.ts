@@ -21,7 +21,10 @@ export interface HydraulicState {
   readonly specificForceM3: number;
 }
 
-/** The hydraulic state of discharge Q (m3/s, > 0) at depth y (m, > 0). */
+/**
+ * The hydraulic state of discharge Q (m3/s, > 0) at depth y (m, > 0; for a conduit at most its full depth, where
+ * T = 0 makes the hydraulic depth infinite and the Froude number 0: no free surface).
+ */
 export function hydraulicStateAt(section: SectionGeometry, depthM: number, dischargeM3s: number): HydraulicState {
   const areaM2 = section.areaM2(depthM);
   const wettedPerimeterM = section.wettedPerimeterM(depthM);

@@ -24,6 +24,37 @@ export interface SectionGeometry {
   wettedPerimeterSlope(depthM: number): number;
   /** dT/dy, dimensionless (for Newton steps on the critical-flow section factor). */
   topWidthSlope(depthM: number): number;
+  /**
+   * Why these dimensions cannot describe a channel (one sentence, SI), or undefined when they can. The factories
+   * never throw on bad numbers; the solvers turn this into an 'invalid-input' result instead.
+   */
+  readonly dimensionProblem?: string | undefined;
+  /** Facts a shape knows in closed form that let the depth solvers start close to the answer. Optional. */
+  readonly solverHints?: SectionSolverHints | undefined;
+}
+
+/**
+ * Optional knowledge a shape offers the depth solvers. Estimates only choose where the iteration starts: any
+ * positive depth is safe, because the solver keeps its iterate inside a bracket and accepts a depth only when the
+ * defining equation holds to tolerance. A close estimate saves evaluations; an exact one (a closed form) needs one.
+ */
+export interface SectionSolverHints {
+  /** First estimate of normal depth, m, for a Manning conveyance K = A R^(2/3) = Q n / sqrt(S), m^(8/3). */
+  normalDepthEstimateM?(conveyanceM83: number): number;
+  /** First estimate of critical depth, m, for a section factor Z = A sqrt(A/T) = Q / sqrt(g), m^(5/2). */
+  criticalDepthEstimateM?(sectionFactorM52: number): number;
+  /** Closed shapes: where conveyance peaks and its values there and flowing full (else found numerically). */
+  readonly conduitConveyance?: ConduitConveyance;
+}
+
+/** Conveyance facts of a closed conduit (constant n). */
+export interface ConduitConveyance {
+  /** Depth of greatest conveyance A R^(2/3), m (0.9382 D for a circle). */
+  readonly peakDepthM: number;
+  /** Conveyance at that depth, m^(8/3). */
+  readonly peakConveyanceM83: number;
+  /** Conveyance flowing full, m^(8/3). */
+  readonly fullConveyanceM83: number;
 }
 
 /** Hydraulic radius R = A/P, m. Zero at zero depth. */
@@ -35,4 +66,17 @@ export function hydraulicRadiusM(section: SectionGeometry, depthM: number): numb
 /** Hydraulic depth D = A/T, m. Infinite for a full closed conduit (T = 0), which callers treat as "no free surface". */
 export function hydraulicDepthM(section: SectionGeometry, depthM: number): number {
   return section.areaM2(depthM) / section.topWidthM(depthM);
+}
+
+/**
+ * A problem sentence when `value` is not a positive finite length in metres, else undefined (shared by the shape
+ * factories so their messages read alike).
+ */
+export function positiveLengthProblem(name: string, value: number): string | undefined {
+  return value > 0 && Number.isFinite(value) ? undefined : `The ${name} must be a positive finite length (got ${String(value)} m).`;
+}
+
+/** A problem sentence when a side slope (H:V) is not a finite number >= 0, else undefined. */
+export function sideSlopeProblem(name: string, value: number): string | undefined {
+  return value >= 0 && Number.isFinite(value) ? undefined : `The ${name} must be a finite horizontal-to-vertical ratio of 0 or more (got ${String(value)}).`;
 }

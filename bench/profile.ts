@@ -1,0 +1,69 @@
+/**
+ * Speed of the water-surface profile: a 10 km channel computed at 1 m steps (10,000 standard steps) should take
+ * under 20 ms. Prints the median and fastest of repeated runs after a warm-up, for two channels: one mild reach
+ * with a backwater curve (subcritical pass only), and four reaches alternating mild and steep (both passes, two
+ * hydraulic jumps). Run through bench/run-all.ts, or alone with `npx tsx bench/profile.ts`.
+ */
+import { computeChannelProfile, type ChannelProfileInput } from '../language/hydraulics/profile/index.js';
+import { trapezoidSection } from '../language/hydraulics/sections/index.js';
+
+const TARGET_MS = 20;
+const WARM_UP_RUNS = 5;
+const TIMED_RUNS = 30;
+
+const canal = trapezoidSection({ bottomWidthM: 3, leftSideSlopeHV: 2, rightSideSlopeHV: 2 });
+
+/** One mild reach, 10 km, backwater from a high outlet level. */
+const backwaterChannel: ChannelProfileInput = {
+  reaches: [{ name: 'canal', section: canal, manningN: 0.025, bedSlope: 0.0005, lengthM: 10_000 }],
+  dischargeM3s: 12,
+  outlet: { kind: 'water-level', elevationM: 3.5 },
+  stepControl: { maximumStepLengthM: 1 },
+};
+
+/** Mild, steep, mild, steep: 10 km in all, critical depth at both breaks, two jumps. */
+const mixedChannel: ChannelProfileInput = {
+  reaches: [
+    { name: 'upper mild', section: canal, manningN: 0.025, bedSlope: 0.0005, lengthM: 3_000 },
+    { name: 'upper chute', section: canal, manningN: 0.016, bedSlope: 0.02, lengthM: 2_000 },
+    { name: 'lower mild', section: canal, manningN: 0.025, bedSlope: 0.0005, lengthM: 3_000 },
+    { name: 'lower chute', section: canal, manningN: 0.016, bedSlope: 0.02, lengthM: 2_000 },
+  ],
+  dischargeM3s: 12,
+  outlet: { kind: 'water-level', elevationM: 2.5 },
+  stepControl: { maximumStepLengthM: 1 },
+};
+
+function timeRuns(input: ChannelProfileInput): { medianMs: number; fastestMs: number; points: number; jumps: number } {
+  let points = 0;
+  let jumps = 0;
+  for (let run = 0; run < WARM_UP_RUNS; run++) computeChannelProfile(input);
+  const timesMs: number[] = [];
+  for (let run = 0; run < TIMED_RUNS; run++) {
+    const startMs = performance.now();
+    const result = computeChannelProfile(input);
+    timesMs.push(performance.now() - startMs);
+    if (!result.converged) throw new Error(`bench channel did not converge: ${result.message}`);
+    points = result.points.length;
+    jumps = result.jumps.length;
+  }
+  timesMs.sort((a, b) => a - b);
+  return { medianMs: timesMs[Math.floor(timesMs.length / 2)] ?? 0, fastestMs: timesMs[0] ?? 0, points, jumps };
+}
+
+export async function run(): Promise<void> {
+  for (const [label, input] of [
+    ['10 km mild channel, backwater, 1 m steps', backwaterChannel],
+    ['10 km mild/steep channel, two jumps, 1 m steps', mixedChannel],
+  ] as const) {
+    const { medianMs, fastestMs, points, jumps } = timeRuns(input);
+    const verdict = medianMs < TARGET_MS ? 'within' : 'OVER';
+    console.log(
+      `water-surface profile, ${label}: median ${medianMs.toFixed(2)} ms, fastest ${fastestMs.toFixed(2)} ms over ${TIMED_RUNS} runs ` +
+        `(${points} points, ${jumps} jumps) — ${verdict} the ${TARGET_MS} ms target`,
+    );
+  }
+}
+
+// Allow `npx tsx bench/profile.ts` on its own.
+if (import.meta.url === `file://${process.argv[1]}`) await run();

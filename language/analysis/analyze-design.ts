@@ -1,0 +1,526 @@
+/**
+ * The analysis: a Runnel document in, a DesignAnalysis out (see model.ts). Each reach is checked at each design
+ * flow in uniform flow with the engine, and the results are judged against the criteria in force.
+ *
+ * One computation per document version: `analyzeDocument` caches its result per document and recomputes only when
+ * the text changed or a lining or section the design uses (possibly in another file) was replaced. Diagnostics,
+ * hints, hover, the report and the CLI all read this one result. Nothing here throws on user input: a reach the
+ * file leaves incomplete is listed in `incompleteReaches` and validation says why.
+ */
+import { AstUtils, type AstNode, type LangiumDocument } from 'langium';
+import {
+  isLibraryHeader,
+  isNote,
+  isOutlet,
+  isReach,
+  isRunnelFile,
+  isUnitsSetting,
+  type Channel,
+  type Flow,
+  type Lining,
+  type Outlet,
+  type Reach,
+  type RunnelFile,
+  type Section,
+} from '../generated/ast.js';
+import {
+  boundaryShear,
+  classifyRegime,
+  classifySlope,
+  criticalSlope,
+  fullFlowCapacityM3s,
+  hydraulicStateAt,
+  manningDischargeM3s,
+  maximumUniformFlowCapacityM3s,
+  solveNormalDepth,
+  type HydraulicState,
+} from '../hydraulics/index.js';
+import { findUnit, type UnitSystem } from '../units/units.js';
+import { usbrFreeboardCoefficientM, usbrFreeboardM } from './criteria-defaults.js';
+import {
+  channelFlowDischarges,
+  designChannels,
+  designCriteriaBlocks,
+  designFlows,
+  reachParts,
+  resolveCriteria,
+  resolveLining,
+  resolveReachGeometry,
+  resolveSection,
+  type FlowDischarge,
+  type ResolvedLining,
+  type ResolvedSection,
+} from './design-inputs.js';
+import { FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
+import type {
+  ChannelResult,
+  CheckStatus,
+  DesignAnalysis,
+  DesignFlowResult,
+  Finding,
+  FlowResult,
+  IncompleteReach,
+  LiningResult,
+  ReachResult,
+  ResolvedCriteria,
+  SectionResult,
+  Severity,
+  SourceLocation,
+  StateResult,
+} from './model.js';
+import { CAUTION, DESIGN_ASSUMPTIONS, DESIGN_PROVENANCE, REACH_PROVENANCE } from './provenance.js';
+import { isQuantityNode, quantitySI } from './quantities.js';
+import { locationOf, propertyLocationOf } from './source-locations.js';
+
+// ------------------------------------------------------------------------------------------------ public API
+
+/**
+ * The analysis of a Runnel document, computed once per document version and per set of linings and sections it
+ * uses. The document should be built (linked) by the workspace's DocumentBuilder; unresolved references only make
+ * the reaches that use them incomplete.
+ */
+export function analyzeDocument(document: LangiumDocument): DesignAnalysis {
+  const root = document.parseResult.value;
+  const version = document.textDocument.version;
+  const dependencies = isRunnelFile(root) ? resolvedDependencies(root) : [root];
+  const cached = analysisCache.get(document);
+  if (cached !== undefined && cached.version === version && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
+  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version) : emptyAnalysis(document.uri.toString(), version);
+  analysisCache.set(document, { version, dependencies, analysis });
+  return analysis;
+}
+
+/** Forgets a cached analysis (tests and benchmarks use it to time a fresh computation). */
+export function forgetAnalysis(document: LangiumDocument): void {
+  analysisCache.delete(document);
+}
+
+/** Severity to status: the worst finding decides. */
+export function statusOf(findings: readonly { readonly severity: Severity }[]): CheckStatus {
+  if (findings.some((finding) => finding.severity === 'error')) return 'fail';
+  if (findings.some((finding) => finding.severity === 'warning')) return 'warning';
+  if (findings.some((finding) => finding.severity === 'information')) return 'information';
+  return 'pass';
+}
+
+/** The display system of a file: its `units` setting if valid, else the system of most of its units (ties: SI). */
+export function displayUnitsOf(file: RunnelFile): { system: UnitSystem; origin: 'setting' | 'inferred' } {
+  const setting = (file.members ?? []).find(isUnitsSetting);
+  if (setting?.system === 'SI' || setting?.system === 'US') return { system: setting.system, origin: 'setting' };
+  let usCount = 0;
+  let siCount = 0;
+  for (const node of AstUtils.streamAst(file)) {
+    if (!isQuantityNode(node) || node.unit === undefined) continue;
+    const system = findUnit(node.unit)?.system;
+    if (system === 'US') usCount++;
+    else if (system === 'SI') siCount++;
+  }
+  return { system: usCount > siCount ? 'US' : 'SI', origin: 'inferred' };
+}
+
+// ------------------------------------------------------------------------------------------------ cache
+
+interface CacheEntry {
+  readonly version: number;
+  readonly dependencies: readonly AstNode[];
+  readonly analysis: DesignAnalysis;
+}
+
+const analysisCache = new WeakMap<LangiumDocument, CacheEntry>();
+
+/** The root and every section and lining the reaches resolve to: if any of them is replaced, recompute. */
+function resolvedDependencies(file: RunnelFile): AstNode[] {
+  const nodes: AstNode[] = [file];
+  for (const channel of designChannels(file)) {
+    for (const member of channel.members ?? []) {
+      if (!isReach(member)) continue;
+      const parts = reachParts(member);
+      const section = parts.sectionUse?.section?.ref;
+      const lining = parts.liningUse?.lining?.ref;
+      if (section !== undefined) nodes.push(section);
+      if (lining !== undefined) nodes.push(lining);
+    }
+  }
+  return nodes;
+}
+
+function sameNodes(left: readonly AstNode[], right: readonly AstNode[]): boolean {
+  return left.length === right.length && left.every((node, index) => node === right[index]);
+}
+
+// ------------------------------------------------------------------------------------------------ design
+
+function emptyAnalysis(uri: string, version: number): DesignAnalysis {
+  const criteria = resolveCriteria([], [], 'SI');
+  return {
+    uri,
+    title: titleFromUri(uri),
+    notes: [],
+    displayUnits: 'SI',
+    channels: [],
+    findings: [],
+    caution: CAUTION,
+    assumptions: DESIGN_ASSUMPTIONS,
+    provenance: DESIGN_PROVENANCE,
+    version,
+    kind: 'design',
+    displayUnitsOrigin: 'inferred',
+    flows: [],
+    criteria,
+    incompleteReaches: [],
+  };
+}
+
+function analyzeFile(file: RunnelFile, uri: string, version: number): DesignAnalysis {
+  const { system, origin } = displayUnitsOf(file);
+  const formatter = new MessageFormatter(system);
+  const criteriaBlocks = designCriteriaBlocks(file);
+  const flows = designFlows(file);
+  const incompleteReaches: IncompleteReach[] = [];
+  const channels = designChannels(file).map((channel) => analyzeChannel(channel, flows, criteriaBlocks, system, formatter, incompleteReaches));
+  const findings = channels.flatMap((channel) => channel.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)));
+  const header = file.header;
+  return {
+    uri,
+    title: header?.title ?? titleFromUri(uri),
+    notes: (file.members ?? []).filter(isNote).map((note) => note.text ?? ''),
+    displayUnits: system,
+    channels,
+    findings,
+    caution: CAUTION,
+    assumptions: DESIGN_ASSUMPTIONS,
+    provenance: DESIGN_PROVENANCE,
+    version,
+    kind: isLibraryHeader(header) ? 'library' : 'design',
+    displayUnitsOrigin: origin,
+    flows: flows.map(flowSummary),
+    criteria: resolveCriteria(criteriaBlocks, [], system),
+    incompleteReaches,
+  };
+}
+
+function flowSummary(flow: Flow): DesignFlowResult {
+  return {
+    name: flow.name ?? '',
+    description: flow.description ?? null,
+    discharge_m3s: quantitySI(flow.discharge) ?? null,
+    location: locationOf(flow),
+  };
+}
+
+function titleFromUri(uri: string): string {
+  const lastSegment = uri.split('/').pop() ?? uri;
+  return decodeURIComponent(lastSegment).replace(/\.runnel$/, '');
+}
+
+// ------------------------------------------------------------------------------------------------ channels
+
+function analyzeChannel(
+  channel: Channel,
+  flows: readonly Flow[],
+  designCriteria: ReturnType<typeof designCriteriaBlocks>,
+  system: UnitSystem,
+  formatter: MessageFormatter,
+  incompleteReaches: IncompleteReach[],
+): ChannelResult {
+  const channelName = channel.name ?? '';
+  const dischargesByReach = channelFlowDischarges(channel, flows);
+  const reaches: ReachResult[] = [];
+  for (const member of channel.members ?? []) {
+    if (!isReach(member)) continue;
+    const geometry = resolveReachGeometry(member);
+    if (!geometry.ok) {
+      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason: geometry.reason, location: propertyLocationOf(member, 'name') });
+      continue;
+    }
+    const section = resolveSection(geometry.value.section);
+    if (!section.ok) {
+      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason: section.reason, location: propertyLocationOf(member, 'name') });
+      continue;
+    }
+    const lining = resolveLining(geometry.value.lining);
+    if (!lining.ok) {
+      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason: lining.reason, location: propertyLocationOf(member, 'name') });
+      continue;
+    }
+    const criteria = resolveCriteria(designCriteria, reachParts(member).criteria, system);
+    const reachContext: ReachContext = {
+      channelName,
+      reach: member,
+      reachName: member.name ?? '',
+      reachNameLocation: propertyLocationOf(member, 'name'),
+      sectionNode: geometry.value.section,
+      section: section.value,
+      liningNode: geometry.value.lining,
+      lining: lining.value,
+      slope: geometry.value.slope,
+      criteria,
+      formatter,
+    };
+    const discharges = dischargesByReach.get(member) ?? new Map<Flow, FlowDischarge>();
+    const flowResults = flows.flatMap((flow) => {
+      const discharge = discharges.get(flow);
+      return discharge === undefined ? [] : [analyzeFlow(reachContext, discharge)];
+    });
+    reaches.push({
+      channel: channelName,
+      name: reachContext.reachName,
+      location: locationOf(member),
+      nameLocation: reachContext.reachNameLocation,
+      section: sectionResult(geometry.value.section, section.value),
+      lining: liningResult(geometry.value.lining, lining.value),
+      slope: geometry.value.slope,
+      length_m: geometry.value.lengthM,
+      upstreamInvert_m: geometry.value.upstreamInvertM,
+      downstreamInvert_m: geometry.value.downstreamInvertM,
+      bankfullCapacity_m3s: bankfullCapacityM3s(section.value, lining.value, geometry.value.slope),
+      criteria,
+      flows: flowResults,
+      status: statusOf(flowResults.flatMap((flow) => flow.findings)),
+      provenance: REACH_PROVENANCE,
+    });
+  }
+  return { name: channelName, location: locationOf(channel), description: channel.description ?? null, outlet: outletOf((channel.members ?? []).find(isOutlet)), reaches };
+}
+
+function outletOf(outlet: Outlet | undefined): ChannelResult['outlet'] {
+  if (outlet === undefined) return null;
+  switch (outlet.kind) {
+    case 'free':
+      return { kind: 'free-fall' };
+    case 'normal':
+      return { kind: 'normal-depth' };
+    case 'water': {
+      const elevationM = quantitySI(outlet.level);
+      return elevationM === undefined ? null : { kind: 'water-level', elevation_m: elevationM };
+    }
+    default:
+      return null;
+  }
+}
+
+function sectionResult(node: Section, section: ResolvedSection): SectionResult {
+  return {
+    name: node.name ?? '',
+    shape: section.shape,
+    dimensions: section.dimensions,
+    bankDepth_m: section.fullDepthM === null ? section.bankDepthM : null,
+    fullDepth_m: section.fullDepthM,
+    location: locationOf(node),
+    description: node.description ?? null,
+  };
+}
+
+function liningResult(node: Lining, lining: ResolvedLining): LiningResult {
+  return {
+    name: node.name ?? '',
+    manningN: lining.manningN,
+    maxVelocity_mps: lining.maxVelocityMps,
+    maxShear_Pa: lining.maxShearPa,
+    description: node.description ?? null,
+    location: locationOf(node),
+    source: lining.source,
+  };
+}
+
+function bankfullCapacityM3s(section: ResolvedSection, lining: ResolvedLining, slope: number): number | null {
+  if (!(slope > 0)) return null;
+  if (section.fullDepthM !== null) return fullFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? null;
+  if (section.bankDepthM === null) return null;
+  return manningDischargeM3s(section.geometry, section.bankDepthM, lining.manningN, slope);
+}
+
+// ------------------------------------------------------------------------------------------------ one flow
+
+interface ReachContext {
+  readonly channelName: string;
+  readonly reach: Reach;
+  readonly reachName: string;
+  readonly reachNameLocation: SourceLocation;
+  readonly sectionNode: Section;
+  readonly section: ResolvedSection;
+  readonly liningNode: Lining;
+  readonly lining: ResolvedLining;
+  readonly slope: number;
+  readonly criteria: ResolvedCriteria;
+  readonly formatter: MessageFormatter;
+}
+
+function analyzeFlow(context: ReachContext, discharge: FlowDischarge): FlowResult {
+  const { section, lining, slope, criteria, formatter: f } = context;
+  const flowName = discharge.flow.name ?? '';
+  const dischargeM3s = discharge.dischargeM3s;
+  const flowLocation = locationOf(discharge.source);
+  const findings: Finding[] = [];
+  const report = (code: string, severity: Severity, message: string, data: Record<string, number | string>, related: Finding['related'] = []): void => {
+    findings.push({
+      code,
+      severity,
+      message,
+      location: context.reachNameLocation,
+      channel: context.channelName,
+      reach: context.reachName,
+      flow: flowName,
+      related: [{ message: `Discharge of ${flowName} set here`, location: flowLocation }, ...related],
+      data: { discharge_m3s: dischargeM3s, ...data },
+    });
+  };
+  const sectionRelated = { message: `Section '${context.sectionNode.name ?? ''}'`, location: locationOf(context.sectionNode) };
+  const liningRelated = { message: `Lining '${context.liningNode.name ?? ''}'`, location: locationOf(context.liningNode) };
+
+  // Critical depth does not depend on slope or roughness; critical slope does.
+  const critical = criticalSlope(section.geometry, dischargeM3s, lining.manningN);
+  const criticalState = critical.converged ? stateResult(hydraulicStateAt(section.geometry, critical.criticalDepthM, dischargeM3s)) : null;
+  if (!critical.converged) report(FINDING_CODES.depthSolveFailed, 'error', FINDING_MESSAGES.depthSolveFailed(f, { flow: flowName, detail: critical.message }), { reason: critical.reason });
+
+  let normal: StateResult | null = null;
+  let normalDepthNote: string | null = null;
+  if (!(slope > 0)) {
+    normalDepthNote = FINDING_MESSAGES.noNormalDepth(f, { flow: flowName, slope });
+    report(FINDING_CODES.noNormalDepth, 'information', normalDepthNote, { slope });
+  } else {
+    const solution = solveNormalDepth(section.geometry, { dischargeM3s, manningN: lining.manningN, bedSlope: slope });
+    if (solution.converged) {
+      normal = stateResult(hydraulicStateAt(section.geometry, solution.depthM, dischargeM3s));
+      if (solution.branch === 'lower-of-two') {
+        normalDepthNote = LOWER_OF_TWO_DEPTHS_NOTE;
+        const fullCapacityM3s = fullFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? Number.NaN;
+        const peakCapacityM3s = maximumUniformFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? Number.NaN;
+        report(
+          FINDING_CODES.conduitTwoDepthZone,
+          'warning',
+          FINDING_MESSAGES.conduitTwoDepthZone(f, { flow: flowName, dischargeM3s, section: context.sectionNode.name ?? '', normalDepthM: solution.depthM, fullCapacityM3s, peakCapacityM3s }),
+          { normalDepth_m: solution.depthM, fullCapacity_m3s: fullCapacityM3s, peakCapacity_m3s: peakCapacityM3s },
+          [sectionRelated],
+        );
+      }
+    } else if (solution.reason === 'exceeds-capacity') {
+      const peakCapacityM3s = solution.capacityM3s ?? maximumUniformFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? Number.NaN;
+      const fullCapacityM3s = fullFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? null;
+      normalDepthNote = FINDING_MESSAGES.conduitOverCapacity(f, { flow: flowName, dischargeM3s, section: context.sectionNode.name ?? '', peakCapacityM3s, fullCapacityM3s });
+      report(FINDING_CODES.conduitOverCapacity, 'error', normalDepthNote, { peakCapacity_m3s: peakCapacityM3s, ...(fullCapacityM3s === null ? {} : { fullCapacity_m3s: fullCapacityM3s }) }, [sectionRelated]);
+    } else {
+      normalDepthNote = FINDING_MESSAGES.depthSolveFailed(f, { flow: flowName, detail: solution.message });
+      report(FINDING_CODES.depthSolveFailed, 'error', normalDepthNote, { reason: solution.reason });
+    }
+  }
+
+  const regime = normal === null ? null : classifyRegime(normal.froudeNumber);
+  const slopeClass = critical.converged
+    ? classifySlope(slope, normal?.depth_m, critical.criticalDepthM)
+    : classifySlope(slope, normal?.depth_m, regime === 'supercritical' ? Number.POSITIVE_INFINITY : 0);
+  const shear = normal === null ? null : boundaryShear(normal.depth_m, normal.hydraulicRadius_m, slope);
+
+  // Freeboard: bank (or crown) above normal depth. Closed conduits are judged by capacity, not freeboard.
+  const rimDepthM = section.fullDepthM ?? section.bankDepthM;
+  const freeboardM = normal === null || rimDepthM === null ? null : rimDepthM - normal.depth_m;
+  let requiredFreeboardM: number | null = null;
+  let usbrCoefficientM: number | null = null;
+  if (normal !== null && section.fullDepthM === null && criteria.freeboard !== null) {
+    if (criteria.freeboard.kind === 'fixed') requiredFreeboardM = criteria.freeboard.height_m;
+    else {
+      usbrCoefficientM = criteria.freeboard.coefficientC_SI ?? usbrFreeboardCoefficientM(dischargeM3s);
+      requiredFreeboardM = usbrFreeboardM(usbrCoefficientM, normal.depth_m);
+    }
+  }
+
+  if (normal !== null) {
+    if (section.fullDepthM === null && section.bankDepthM !== null && normal.depth_m > section.bankDepthM) {
+      report(
+        FINDING_CODES.overtopping,
+        'error',
+        FINDING_MESSAGES.overtopping(f, { flow: flowName, normalDepthM: normal.depth_m, bankDepthM: section.bankDepthM, section: context.sectionNode.name ?? '' }),
+        { normalDepth_m: normal.depth_m, bankDepth_m: section.bankDepthM },
+        [sectionRelated],
+      );
+    } else if (freeboardM !== null && requiredFreeboardM !== null && freeboardM < requiredFreeboardM) {
+      report(
+        FINDING_CODES.freeboardBelowRequired,
+        'warning',
+        FINDING_MESSAGES.freeboardBelowRequired(f, { flow: flowName, freeboardM, requiredM: requiredFreeboardM, normalDepthM: normal.depth_m, usbrCoefficientM }),
+        { actual_m: freeboardM, required_m: requiredFreeboardM, normalDepth_m: normal.depth_m, ...(usbrCoefficientM === null ? {} : { usbrCoefficient_m: usbrCoefficientM }) },
+        [sectionRelated],
+      );
+    }
+
+    const froude = normal.froudeNumber;
+    const band = criteria.avoidFroude;
+    if (froude >= band.low && froude <= band.high) {
+      report(
+        FINDING_CODES.nearCriticalFlow,
+        'warning',
+        FINDING_MESSAGES.nearCriticalFlow(f, { flow: flowName, froude, low: band.low, high: band.high, bandIsDefault: criteria.origin['avoidFroude'] === 'default' }),
+        { froudeNumber: froude, bandLow: band.low, bandHigh: band.high },
+      );
+    } else if (regime === 'supercritical') {
+      report(
+        FINDING_CODES.supercriticalFlow,
+        'warning',
+        FINDING_MESSAGES.supercriticalFlow(f, { flow: flowName, froude, normalDepthM: normal.depth_m, criticalDepthM: criticalState?.depth_m ?? Number.NaN }),
+        { froudeNumber: froude, normalDepth_m: normal.depth_m, ...(criticalState === null ? {} : { criticalDepth_m: criticalState.depth_m }) },
+      );
+    }
+
+    const margin = criteria.limitMargin;
+    if (lining.maxVelocityMps !== null && normal.velocity_mps > lining.maxVelocityMps) {
+      report(
+        FINDING_CODES.velocityAbovePermissible,
+        normal.velocity_mps > lining.maxVelocityMps * (1 + margin) ? 'error' : 'warning',
+        FINDING_MESSAGES.velocityAbovePermissible(f, { flow: flowName, velocityMps: normal.velocity_mps, permissibleMps: lining.maxVelocityMps, lining: context.liningNode.name ?? '', margin }),
+        { velocity_mps: normal.velocity_mps, permissible_mps: lining.maxVelocityMps, limitMargin: margin },
+        [liningRelated],
+      );
+    }
+    if (shear !== null && lining.maxShearPa !== null && shear.maximumPa > lining.maxShearPa) {
+      report(
+        FINDING_CODES.shearAbovePermissible,
+        shear.maximumPa > lining.maxShearPa * (1 + margin) ? 'error' : 'warning',
+        FINDING_MESSAGES.shearAbovePermissible(f, { flow: flowName, shearPa: shear.maximumPa, permissiblePa: lining.maxShearPa, lining: context.liningNode.name ?? '', margin }),
+        { maxShear_Pa: shear.maximumPa, permissible_Pa: lining.maxShearPa, limitMargin: margin },
+        [liningRelated],
+      );
+    }
+    if (criteria.minVelocity_mps !== null && normal.velocity_mps < criteria.minVelocity_mps) {
+      report(
+        FINDING_CODES.velocityBelowSelfCleansing,
+        'information',
+        FINDING_MESSAGES.velocityBelowSelfCleansing(f, { flow: flowName, velocityMps: normal.velocity_mps, minimumMps: criteria.minVelocity_mps }),
+        { velocity_mps: normal.velocity_mps, minimum_mps: criteria.minVelocity_mps },
+      );
+    }
+  }
+
+  return {
+    flow: flowName,
+    description: discharge.flow.description ?? null,
+    discharge_m3s: dischargeM3s,
+    flowLocation,
+    normal,
+    normalDepthNote,
+    critical: criticalState,
+    criticalSlope: critical.converged ? critical.slope : null,
+    regime,
+    slopeClass,
+    maxShear_Pa: shear?.maximumPa ?? null,
+    averageShear_Pa: shear?.averagePa ?? null,
+    freeboard_m: freeboardM,
+    requiredFreeboard_m: requiredFreeboardM,
+    status: statusOf(findings),
+    findings,
+  };
+}
+
+function stateResult(state: HydraulicState): StateResult {
+  return {
+    depth_m: state.depthM,
+    area_m2: state.areaM2,
+    wettedPerimeter_m: state.wettedPerimeterM,
+    topWidth_m: state.topWidthM,
+    hydraulicRadius_m: state.hydraulicRadiusM,
+    hydraulicDepth_m: state.hydraulicDepthM,
+    velocity_mps: state.velocityMs,
+    froudeNumber: state.froudeNumber,
+    specificEnergy_m: state.specificEnergyM,
+    specificForce_m3: state.specificForceM3,
+  };
+}

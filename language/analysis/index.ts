@@ -1,0 +1,7 @@
+/** The analysis: document in, DesignAnalysis out. See model.ts for the contract and analyze-design.ts for the method. */
+export * from './model.js';
+export { analyzeDocument, forgetAnalysis, displayUnitsOf, statusOf } from './analyze-design.js';
+export { CAUTION, DESIGN_ASSUMPTIONS, DESIGN_PROVENANCE, REACH_PROVENANCE, REFERENCES } from './provenance.js';
+export { FINDING_CODES, FINDING_MESSAGES, type FindingCode } from './finding-messages.js';
+export * from './criteria-defaults.js';
+export { formatNumber, formatQuantity, formatInUnit, formatRatio, formatPercent } from './format-quantity.js';

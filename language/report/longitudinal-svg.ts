@@ -1,0 +1,320 @@
+/**
+ * The longitudinal view of one channel: distance from its upstream end against elevation, with the bed, the bank
+ * tops (or conduit crowns), and for each design flow its normal-depth line (solid) and critical-depth line
+ * (dashed) over every reach, reach boundaries and names, and the outlet condition. When the channel carries
+ * computed water-surface profiles (profile-overlay.ts) they are drawn over these lines with any hydraulic jumps.
+ * Elevations come from the reach inverts where given; otherwise the bed is built from slopes and lengths and
+ * plotted relative to the outlet invert, which the axis label says.
+ */
+import type { ChannelResult, ReachResult } from '../analysis/model.js';
+import type { UnitSystem } from '../units/units.js';
+import { escapeHtml, truncateLabel } from './escape.js';
+import { flowColourClass } from './flow-colours.js';
+import { displayUnit, displayValue, formatElevation, formatSignificant } from './format.js';
+import { waterSurfaceProfilesOf, type ChannelWithProfiles } from './profile-overlay.js';
+import { DRAWING_WORDS } from './report-wording.js';
+import { linearScale, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, type PlotArea } from './svg-scale.js';
+
+export interface LongitudinalOptions {
+  /** Unique id of the drawing in its document. */
+  readonly id: string;
+  /** Design flow order, for consistent flow colours. */
+  readonly flowOrder?: readonly string[];
+}
+
+const DRAWING_WIDTH = 960;
+const PLOT: PlotArea = { left: 78, top: 34, width: 960 - 78 - 40, height: 250 };
+const LEGEND_TOP_GAP = 56;
+const LEGEND_ROW_HEIGHT = 17;
+/** Approximate width of one label character at the drawing's font size, px (for fitting reach names). */
+const CHARACTER_WIDTH = 6.2;
+
+/** Where a reach lies along the channel and its bed elevations, m. */
+export interface ReachPlacement {
+  readonly reach: ReachResult;
+  readonly startStationM: number;
+  readonly endStationM: number;
+  readonly upstreamBedM: number;
+  readonly downstreamBedM: number;
+}
+
+/**
+ * Places every reach along the channel. Inverts given in the design are used as they are (a difference at a
+ * junction is a drop); a missing invert continues from the neighbouring reach by slope x length. With no invert
+ * anywhere the outlet invert is taken as zero and `datum` is 'relative-to-outlet'.
+ */
+export function placeReaches(channel: ChannelResult): { readonly placements: readonly ReachPlacement[]; readonly datum: 'absolute' | 'relative-to-outlet' } {
+  const reaches = channel.reaches;
+  const lengths = reaches.map((reach) => (Number.isFinite(reach.length_m) && reach.length_m > 0 ? reach.length_m : 0));
+  const slopes = reaches.map((reach) => (Number.isFinite(reach.slope) ? reach.slope : 0));
+  const upstream = reaches.map((reach) => finiteOrNaN(reach.upstreamInvert_m));
+  const downstream = reaches.map((reach) => finiteOrNaN(reach.downstreamInvert_m));
+  const anyInvert = [...upstream, ...downstream].some(Number.isFinite);
+  if (!anyInvert && reaches.length > 0) downstream[reaches.length - 1] = 0;
+  // Fill each reach from its own other end, then from its neighbours, until nothing changes.
+  for (let pass = 0; pass < 2 * reaches.length + 2; pass++) {
+    let changed = false;
+    for (let index = 0; index < reaches.length; index++) {
+      const drop = slopes[index]! * lengths[index]!;
+      if (Number.isNaN(upstream[index]!) && Number.isFinite(downstream[index]!)) {
+        upstream[index] = downstream[index]! + drop;
+        changed = true;
+      }
+      if (Number.isNaN(downstream[index]!) && Number.isFinite(upstream[index]!)) {
+        downstream[index] = upstream[index]! - drop;
+        changed = true;
+      }
+      if (Number.isNaN(upstream[index]!) && index > 0 && Number.isFinite(downstream[index - 1]!)) {
+        upstream[index] = downstream[index - 1]!;
+        changed = true;
+      }
+      if (Number.isNaN(downstream[index]!) && index + 1 < reaches.length && Number.isFinite(upstream[index + 1]!)) {
+        downstream[index] = upstream[index + 1]!;
+        changed = true;
+      }
+    }
+    if (!changed) break;
+  }
+  let stationM = 0;
+  const placements = reaches.map((reach, index) => {
+    const placement: ReachPlacement = {
+      reach,
+      startStationM: stationM,
+      endStationM: stationM + lengths[index]!,
+      upstreamBedM: Number.isFinite(upstream[index]!) ? upstream[index]! : 0,
+      downstreamBedM: Number.isFinite(downstream[index]!) ? downstream[index]! : 0,
+    };
+    stationM += lengths[index]!;
+    return placement;
+  });
+  return { placements, datum: anyInvert ? 'absolute' : 'relative-to-outlet' };
+}
+
+/** Bed elevation at a station, m (linear within a reach; the first reach containing the station). */
+export function bedElevationAtM(placements: readonly ReachPlacement[], stationM: number): number | undefined {
+  for (const placement of placements) {
+    if (stationM >= placement.startStationM && stationM <= placement.endStationM) {
+      const length = placement.endStationM - placement.startStationM;
+      const fraction = length > 0 ? (stationM - placement.startStationM) / length : 0;
+      return placement.upstreamBedM + fraction * (placement.downstreamBedM - placement.upstreamBedM);
+    }
+  }
+  return undefined;
+}
+
+/** The longitudinal view of a channel as an SVG fragment; see the module comment. */
+export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: UnitSystem, options: LongitudinalOptions): string {
+  const title = `Longitudinal view of channel ${channel.name}`;
+  const { placements, datum } = placeReaches(channel);
+  const last = placements[placements.length - 1];
+  const totalLengthM = last?.endStationM ?? 0;
+  if (last === undefined || !(totalLengthM > 0)) {
+    return renderNotDrawnSvg({ id: options.id, kind: 'longitudinal', title, reason: 'the channel has no reach with a length' });
+  }
+  const profiles = waterSurfaceProfilesOf(channel);
+
+  // Flow names in order, with their colours.
+  const flowNames: string[] = [];
+  for (const placement of placements) for (const flow of placement.reach.flows) if (!flowNames.includes(flow.flow)) flowNames.push(flow.flow);
+  for (const profile of profiles) if (!flowNames.includes(profile.flow)) flowNames.push(profile.flow);
+  const colourOf = (flowName: string): string => flowColourClass(flowName, options.flowOrder, flowNames.indexOf(flowName));
+
+  // Vertical extent: every bed, bank top and water line.
+  const elevations: number[] = [];
+  for (const placement of placements) {
+    const tops = [bankOrCrownM(placement.reach), ...placement.reach.flows.flatMap((flow) => [flow.normal?.depth_m, flow.critical?.depth_m])].filter(isPositiveFinite);
+    for (const bed of [placement.upstreamBedM, placement.downstreamBedM]) {
+      elevations.push(bed);
+      for (const top of tops) elevations.push(bed + top);
+    }
+  }
+  for (const profile of profiles) {
+    for (const point of profile.points) {
+      const bed = bedElevationAtM(placements, point.station_m);
+      if (bed !== undefined) elevations.push(bed + point.depth_m);
+    }
+  }
+  if (channel.outlet?.kind === 'water-level' && datum === 'absolute' && Number.isFinite(channel.outlet.elevation_m)) elevations.push(channel.outlet.elevation_m);
+  const finiteElevations = elevations.filter(Number.isFinite);
+  let lowM = Math.min(...finiteElevations);
+  let highM = Math.max(...finiteElevations);
+  if (!(highM > lowM)) {
+    lowM -= 0.5;
+    highM += 0.5;
+  }
+  const paddingM = 0.08 * (highM - lowM);
+  const toDisplayLength = (metres: number): number => displayValue(metres, 'length', system);
+  const yTicks = niceTicks(toDisplayLength(lowM - paddingM), toDisplayLength(highM + paddingM), 6);
+  const xTicks = niceTicks(0, toDisplayLength(totalLengthM), 8);
+  const xScale = linearScale(0, toDisplayLength(totalLengthM), PLOT.left, PLOT.left + PLOT.width);
+  const yScale = linearScale(toDisplayLength(lowM - paddingM), toDisplayLength(highM + paddingM), PLOT.top + PLOT.height, PLOT.top);
+  const X = (stationM: number): number => xScale.map(toDisplayLength(stationM));
+  const Y = (elevationM: number): number => yScale.map(toDisplayLength(elevationM));
+  const exaggeration = (PLOT.height / (yScale.domainMax - yScale.domainMin)) / (PLOT.width / (xScale.domainMax - xScale.domainMin));
+
+  const unit = displayUnit('length', system);
+  const parts: string[] = [];
+  parts.push(
+    renderAxes(
+      PLOT,
+      { scale: xScale, ticks: xTicks.values, step: xTicks.step, label: `${DRAWING_WORDS.stationAxis} (${unit})` },
+      { scale: yScale, ticks: yTicks.values, step: yTicks.step, label: `${datum === 'absolute' ? DRAWING_WORDS.elevationAxis : DRAWING_WORDS.relativeElevationAxis} (${unit})` },
+    ),
+  );
+
+  // Reach boundaries and names above the plot.
+  placements.forEach((placement, index) => {
+    if (index > 0) {
+      parts.push(`<line class="reach-boundary" data-role="reach-boundary" data-station-m="${placement.startStationM}" x1="${px(X(placement.startStationM))}" y1="${px(PLOT.top)}" x2="${px(X(placement.startStationM))}" y2="${px(PLOT.top + PLOT.height)}"/>`);
+    }
+    const widthPx = X(placement.endStationM) - X(placement.startStationM);
+    const fitting = Math.floor((widthPx - 4) / CHARACTER_WIDTH);
+    if (fitting >= 3) {
+      parts.push(
+        `<text class="fig-label reach-name" data-role="reach-name" x="${px((X(placement.startStationM) + X(placement.endStationM)) / 2)}" y="${px(PLOT.top - 10)}" text-anchor="middle">${escapeHtml(truncateLabel(placement.reach.name, fitting))}</text>`,
+      );
+    }
+  });
+
+  // Bed and bank tops: one path each, a segment per reach (a drop at a junction shows as a vertical step).
+  const bedPoints = placements.flatMap((placement) => [
+    { x: X(placement.startStationM), y: Y(placement.upstreamBedM) },
+    { x: X(placement.endStationM), y: Y(placement.downstreamBedM) },
+  ]);
+  const lowestPx = PLOT.top + PLOT.height;
+  parts.push(`<path class="bed-fill" d="${pathThrough([{ x: X(0), y: lowestPx }, ...bedPoints, { x: X(totalLengthM), y: lowestPx }], true)}"/>`);
+  parts.push(`<path class="bed-line" data-role="bed" d="${pathThrough(bedPoints, false)}"/>`);
+  parts.push(segmentsPath('bank-top-line', 'bank-top', '', placements, (placement) => bankOrCrownM(placement.reach), X, Y));
+
+  // Normal and critical depth lines of each flow.
+  for (const flowName of flowNames) {
+    const colour = colourOf(flowName);
+    const depthOf = (kind: 'normal' | 'critical') => (placement: ReachPlacement): number | undefined => {
+      const flow = placement.reach.flows.find((candidate) => candidate.flow === flowName);
+      const depth = kind === 'normal' ? flow?.normal?.depth_m : flow?.critical?.depth_m;
+      return isPositiveFinite(depth) ? depth : undefined;
+    };
+    parts.push(segmentsPath(`critical-line ${colour}`, 'critical-depth-line', flowName, placements, depthOf('critical'), X, Y));
+    parts.push(segmentsPath(`normal-line ${colour}`, 'normal-depth-line', flowName, placements, depthOf('normal'), X, Y));
+  }
+
+  // Computed water-surface profiles and jumps, when the channel carries them.
+  for (const profile of profiles) {
+    const colour = colourOf(profile.flow);
+    const points = profile.points
+      .map((point) => {
+        const bed = bedElevationAtM(placements, point.station_m);
+        return bed === undefined ? undefined : { x: X(point.station_m), y: Y(bed + point.depth_m) };
+      })
+      .filter((point): point is { x: number; y: number } => point !== undefined);
+    if (points.length > 1) parts.push(`<path class="profile-line ${colour}" data-role="water-surface-profile" data-flow="${escapeHtml(profile.flow)}" d="${pathThrough(points, false)}"/>`);
+    for (const jump of profile.jumps) {
+      const bed = bedElevationAtM(placements, jump.station_m);
+      if (bed === undefined) continue;
+      const x = X(jump.station_m);
+      const yLow = Y(bed + jump.upstreamDepth_m);
+      const yHigh = Y(bed + jump.downstreamDepth_m);
+      parts.push(
+        `<g class="jump-mark ${colour}" data-role="hydraulic-jump" data-flow="${escapeHtml(profile.flow)}" data-station-m="${jump.station_m}" ` +
+          `data-upstream-depth-m="${jump.upstreamDepth_m}" data-downstream-depth-m="${jump.downstreamDepth_m}">` +
+          `<path d="M${px(x)} ${px(yLow)} L${px(x)} ${px(yHigh)} M${px(x - 4)} ${px(yHigh + 6)} L${px(x)} ${px(yHigh)} L${px(x + 4)} ${px(yHigh + 6)}"/>` +
+          `<text class="fig-label" x="${px(x + 6)}" y="${px(yHigh - 4)}">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text></g>`,
+      );
+    }
+  }
+
+  // The outlet condition at the downstream end.
+  const outletX = X(totalLengthM);
+  const outlet = channel.outlet;
+  let outletText: string | undefined;
+  if (outlet?.kind === 'free-fall') {
+    outletText = DRAWING_WORDS.outletFreeFall;
+    parts.push(`<path class="outlet-mark" data-role="outlet-free-fall" d="M${px(outletX)} ${px(Y(last.downstreamBedM))} v18 m-4 -6 l4 6 l4 -6"/>`);
+  } else if (outlet?.kind === 'normal-depth') {
+    outletText = DRAWING_WORDS.outletNormalDepth;
+  } else if (outlet?.kind === 'water-level') {
+    outletText = DRAWING_WORDS.outletWaterLevel(formatElevation(outlet.elevation_m, system));
+    if (datum === 'absolute' && Number.isFinite(outlet.elevation_m)) {
+      const y = Y(outlet.elevation_m);
+      parts.push(`<line class="outlet-level" data-role="outlet-water-level" data-elevation-m="${outlet.elevation_m}" x1="${px(outletX)}" y1="${px(y)}" x2="${px(outletX + 26)}" y2="${px(y)}"/>`);
+    }
+  }
+  if (outletText !== undefined) {
+    parts.push(`<text class="fig-note" data-role="outlet-label" x="${px(outletX - 6)}" y="${px(PLOT.top + 14)}" text-anchor="end">${escapeHtml(outletText)}</text>`);
+  }
+  const exaggerationText = formatSignificant(exaggeration, 2);
+  parts.push(`<text class="fig-note" data-role="scale-note" x="${px(PLOT.left)}" y="${px(PLOT.top - 24)}">${escapeHtml(DRAWING_WORDS.verticalExaggeration(exaggerationText))}</text>`);
+
+  // Legend: the fixed lines, then each flow.
+  const legend: string[] = [
+    `<path class="bed-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.bed)}</text>`,
+    `<path class="bank-top-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.bankTopOrCrown)}</text>`,
+    ...flowNames.map(
+      (flowName) =>
+        `<path class="normal-line ${colourOf(flowName)}" d="M0 -4 H22"/><path class="critical-line ${colourOf(flowName)}" d="M200 -4 H222"/>` +
+        `<text class="fig-label" x="30" y="0">${escapeHtml(`${truncateLabel(flowName, 16)}: ${DRAWING_WORDS.normalDepthLine}`)}</text>` +
+        `<text class="fig-label" x="230" y="0">${escapeHtml(DRAWING_WORDS.criticalDepthLine)}</text>`,
+    ),
+    ...(profiles.length > 0
+      ? [`<path class="profile-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(`${DRAWING_WORDS.computedWaterSurface}; arrow: ${DRAWING_WORDS.hydraulicJump}`)}</text>`]
+      : []),
+  ];
+  const legendTop = PLOT.top + PLOT.height + LEGEND_TOP_GAP;
+  const perColumn = Math.ceil(legend.length / 2);
+  legend.forEach((row, index) => {
+    const column = Math.floor(index / perColumn);
+    parts.push(`<g class="legend-row" transform="translate(${PLOT.left + column * 380} ${legendTop + (index % perColumn) * LEGEND_ROW_HEIGHT})">${row}</g>`);
+  });
+  const height = legendTop + perColumn * LEGEND_ROW_HEIGHT;
+  return (
+    openSvg({
+      id: options.id,
+      kind: 'longitudinal',
+      width: DRAWING_WIDTH,
+      height,
+      title,
+      data: { 'vertical-exaggeration': exaggerationText, datum, 'length-unit': unit },
+    }) +
+    parts.join('') +
+    '</svg>'
+  );
+}
+
+/**
+ * One path with a straight segment per reach at `height(reach)` above the bed; reaches without a value are left
+ * out. `data-reach-indices` lists, in order, the reach of each "M ... L ..." segment.
+ */
+function segmentsPath(
+  className: string,
+  role: string,
+  flowName: string,
+  placements: readonly ReachPlacement[],
+  height: (placement: ReachPlacement) => number | undefined,
+  X: (stationM: number) => number,
+  Y: (elevationM: number) => number,
+): string {
+  const segments: string[] = [];
+  const indices: number[] = [];
+  placements.forEach((placement, index) => {
+    const value = height(placement);
+    if (value === undefined) return;
+    segments.push(`M${px(X(placement.startStationM))} ${px(Y(placement.upstreamBedM + value))} L${px(X(placement.endStationM))} ${px(Y(placement.downstreamBedM + value))}`);
+    indices.push(index);
+  });
+  if (segments.length === 0) return '';
+  const flowAttribute = flowName === '' ? '' : ` data-flow="${escapeHtml(flowName)}"`;
+  return `<path class="${className}" data-role="${role}"${flowAttribute} data-reach-indices="${indices.join(' ')}" d="${segments.join(' ')}"/>`;
+}
+
+function bankOrCrownM(reach: ReachResult): number | undefined {
+  const candidates = [reach.section.fullDepth_m, reach.section.bankDepth_m, reach.section.shape === 'circle' ? reach.section.dimensions['diameter_m'] : undefined];
+  return candidates.find(isPositiveFinite);
+}
+
+function isPositiveFinite(value: number | null | undefined): value is number {
+  return value !== null && value !== undefined && Number.isFinite(value) && value > 0;
+}
+
+function finiteOrNaN(value: number | null): number {
+  return value !== null && Number.isFinite(value) ? value : Number.NaN;
+}

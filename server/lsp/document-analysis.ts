@@ -1,0 +1,78 @@
+/**
+ * The one analysis of a document version, as every LSP feature reads it. `analyzeDocument` (language/analysis)
+ * computes it once per version and per set of linings and sections the design uses; validation reads it for the
+ * diagnostics, and hints, hover, code actions and the report read the same object through here. The lookups
+ * below (reach by its name's position) are built once per analysis object and kept with it.
+ */
+import { AstUtils, GrammarUtils, type AstNode, type LangiumDocument } from 'langium';
+import { isReach, type Reach } from '../../language/generated/ast.js';
+import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import type { DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
+import type { UnitSystem } from '../../language/units/units.js';
+import type { RunnelEditorSettings } from './runnel-settings.js';
+
+/** The analysis of the document's current version (cached by the analysis). */
+export function analysisOf(document: LangiumDocument): DesignAnalysis {
+  return analyzeDocument(document);
+}
+
+/** The units results are shown in: the setting when it names a system, else the design's own. */
+export function displaySystemFor(analysis: DesignAnalysis, settings: RunnelEditorSettings): UnitSystem {
+  return settings.displayUnits === 'auto' ? analysis.displayUnits : settings.displayUnits;
+}
+
+interface AnalysisIndex {
+  readonly reachByNameStart: ReadonlyMap<string, ReachResult>;
+}
+
+const indexes = new WeakMap<DesignAnalysis, AnalysisIndex>();
+
+function positionKey(position: SourcePosition): string {
+  return `${position.line}:${position.character}`;
+}
+
+function indexOf(analysis: DesignAnalysis): AnalysisIndex {
+  let index = indexes.get(analysis);
+  if (index === undefined) {
+    const reachByNameStart = new Map<string, ReachResult>();
+    for (const channel of analysis.channels) {
+      for (const reach of channel.reaches) reachByNameStart.set(positionKey(reach.nameLocation.range.start), reach);
+    }
+    index = { reachByNameStart };
+    indexes.set(analysis, index);
+  }
+  return index;
+}
+
+/** The results of a reach of the analysed document, or undefined when the analysis left it out (incomplete). */
+export function reachResultOf(analysis: DesignAnalysis, reach: Reach): ReachResult | undefined {
+  const nameNode = GrammarUtils.findNodeForProperty(reach.$cstNode, 'name') ?? reach.$cstNode;
+  if (nameNode === undefined) return undefined;
+  return indexOf(analysis).reachByNameStart.get(positionKey(nameNode.range.start));
+}
+
+/** The reach a node lies in, if any. */
+export function enclosingReach(node: AstNode | undefined): Reach | undefined {
+  return node === undefined ? undefined : AstUtils.getContainerOfType(node, isReach);
+}
+
+/** Whether two locations are the same place. */
+export function sameLocation(left: SourceLocation, right: SourceLocation): boolean {
+  return (
+    left.uri === right.uri &&
+    left.range.start.line === right.range.start.line &&
+    left.range.start.character === right.range.start.character &&
+    left.range.end.line === right.range.end.line &&
+    left.range.end.character === right.range.end.character
+  );
+}
+
+/** Every reach of the analysis with its result for one flow, in document order. */
+export function reachesWithFlow(analysis: DesignAnalysis, flowName: string): { reach: ReachResult; flow: FlowResult }[] {
+  return analysis.channels.flatMap((channel) =>
+    channel.reaches.flatMap((reach) => {
+      const flow = reach.flows.find((candidate) => candidate.flow === flowName);
+      return flow === undefined ? [] : [{ reach, flow }];
+    }),
+  );
+}

@@ -1,0 +1,16 @@
+import { computeChannelProfile } from '../../../language/hydraulics/profile/index.js';
+import { triangleSection } from '../../../language/hydraulics/sections/index.js';
+import { solveNormalDepth } from '../../../language/hydraulics/uniform-flow.js';
+import { solveCriticalDepth } from '../../../language/hydraulics/critical-flow.js';
+const section = triangleSection({ leftSideSlopeHV: 0.5, rightSideSlopeHV: 0.5 });
+const q = 0.1, n = 0.012, s0 = 0.0031811172674999708;
+const yn = (solveNormalDepth(section, { dischargeM3s: q, manningN: n, bedSlope: s0 }) as any).depthM;
+const yc = (solveCriticalDepth(section, q) as any).depthM;
+console.log('yn', yn, 'yc', yc, yn / yc);
+const L = 40 * yn / s0;
+const r = computeChannelProfile({ reaches: [{ name: 'r', section, manningN: n, bedSlope: s0, lengthM: L }], dischargeM3s: q, outlet: { kind: 'water-level', elevationM: 0.3 * yn }, stepControl: { maximumStepLengthM: L / 200 } });
+if (!r.converged) throw 1;
+const d = r.points.map(p => p.depthM);
+console.log('first', d[0], (d[0]! - yn) / yn);
+for (let i = 1; i < d.length; i++) if (d[i]! - d[i-1]! > 1e-6 * yn) console.log(i, r.points[i-1]!.stationM, d[i-1], d[i], d[i]! - d[i-1]!);
+console.log(d.length, r.segments.map(s => s.profileClass + ' ' + s.fromStationM.toFixed(1)));

@@ -1,0 +1,41 @@
+/**
+ * Report number formatting: rounds exactly as the analysis' formatter does (so hover, CLI and report agree),
+ * never prints NaN or Infinity, and prints dates in UTC.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { formatNumber } from '../../language/analysis/format-quantity.js';
+import { formatElevation, formatFixed, formatQuantity, formatSignificant, formatTimestampUtc, MISSING_VALUE } from '../../language/report/format.js';
+
+describe('report number formatting', () => {
+  it('gives the analysis formatter’s text for every ordinary value', () => {
+    fc.assert(
+      fc.property(fc.double({ min: -1e14, max: 1e14, noNaN: true }).filter((value) => value === 0 || Math.abs(value) >= 1e-6), fc.integer({ min: 2, max: 4 }), (value, digits) => {
+        expect(formatSignificant(value, digits)).toBe(formatNumber(value, digits).replace(/^-0(\.0*)?$/, (zero) => zero.slice(1)));
+      }),
+      { numRuns: 3000 },
+    );
+  });
+
+  it('shows a dash for missing and non-finite values, never NaN or Infinity', () => {
+    for (const value of [null, undefined, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY]) {
+      expect(formatSignificant(value)).toBe(MISSING_VALUE);
+      expect(formatFixed(value, 2)).toBe(MISSING_VALUE);
+      expect(formatQuantity(value, 'length', 'SI')).toBe(MISSING_VALUE);
+      expect(formatElevation(value, 'US')).toBe(MISSING_VALUE);
+    }
+    expect(formatSignificant(1e300)).toBe('1.00 × 10^300');
+    expect(formatSignificant(5e-324)).toBe('4.94 × 10^-324');
+  });
+
+  it('converts to display units exactly (1 ft = 0.3048 m, NIST SP 811)', () => {
+    expect(formatQuantity(0.3048, 'length', 'US')).toBe('1 ft');
+    expect(formatElevation(30.48, 'US')).toBe('100.00 ft');
+    expect(formatQuantity(0.005, 'slope', 'SI')).toBe('0.5 %');
+  });
+
+  it('prints the timestamp in UTC', () => {
+    expect(formatTimestampUtc(new Date('2025-12-31T23:59:30-05:00'))).toBe('2026-01-01 04:59 UTC');
+    expect(formatTimestampUtc(new Date(Number.NaN))).toBe(MISSING_VALUE);
+  });
+});

@@ -1,0 +1,215 @@
+/**
+ * The longitudinal view, read back from its own markup: the bed follows the inverts and slopes, each flow's
+ * normal- and critical-depth lines stand at the engine's depths above it, and a computed water-surface profile
+ * with a hydraulic jump (direct-step method, Chow 1959 Sec. 10-2; sequent depth by Belanger's equation, derived)
+ * lands where its stations and depths say.
+ */
+import { describe, expect, it } from 'vitest';
+import type { ChannelResult } from '../../language/analysis/model.js';
+import { GRAVITY_MS2, solveNormalDepth, type SectionGeometry } from '../../language/hydraulics/index.js';
+import { placeReaches, renderLongitudinalSvg } from '../../language/report/longitudinal-svg.js';
+import type { ChannelWithProfiles, WaterSurfaceProfilePoint } from '../../language/report/profile-overlay.js';
+import { buildAnalysis, fixtureGeometry, siDesign } from './fixtures.js';
+import { axisFromTicks, byRole, numberAttribute, parseMarkup, pathVertices, type MarkupElement } from './svg-query.js';
+
+const PIXEL_TOLERANCE = 0.6;
+
+function draw(channel: ChannelWithProfiles) {
+  const parsed = parseMarkup(renderLongitudinalSvg(channel, 'SI', { id: 'test-long' }));
+  return { ...parsed, x: axisFromTicks(parsed.elements, 'x'), y: axisFromTicks(parsed.elements, 'y') };
+}
+
+function segments(element: MarkupElement | undefined): { start: { x: number; y: number }; end: { x: number; y: number } }[] {
+  const vertices = pathVertices(element?.attributes['d'] ?? '');
+  const result = [];
+  for (let index = 0; index + 1 < vertices.length; index += 2) result.push({ start: vertices[index]!, end: vertices[index + 1]! });
+  return result;
+}
+
+describe('longitudinal view', () => {
+  const ditch = siDesign().channels[0]!;
+  const drawing = draw(ditch);
+  // Inverts: 52.40 m given at the top; each reach falls by slope x length (120 m at 0.8 %, 180 m at 0.5 %, 40 m at 4 %).
+  const stations = [0, 120, 300, 340];
+  const beds = [52.4, 52.4 - 0.008 * 120, 52.4 - 0.008 * 120 - 0.005 * 180, 52.4 - 0.008 * 120 - 0.005 * 180 - 0.04 * 40];
+
+  it('is well-formed, with linear axes', () => {
+    expect(drawing.problems).toEqual([]);
+    expect(drawing.x.misfitPx).toBeLessThan(0.02);
+    expect(drawing.y.misfitPx).toBeLessThan(0.02);
+  });
+
+  it('draws the bed through the inverts built from the upstream invert, slopes and lengths', () => {
+    const vertices = pathVertices(byRole(drawing.elements, 'bed')[0]?.attributes['d'] ?? '');
+    expect(vertices).toHaveLength(6);
+    const expected = [0, 1, 1, 2, 2, 3];
+    vertices.forEach((vertex, index) => {
+      const point = expected[index]!;
+      expect(Math.abs(vertex.x - drawing.x.toPx(stations[point]!))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+      expect(Math.abs(vertex.y - drawing.y.toPx(beds[point]!))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    });
+    const boundaries = byRole(drawing.elements, 'reach-boundary').map((line) => numberAttribute(line, 'data-station-m'));
+    expect(boundaries).toEqual([120, 300]);
+  });
+
+  for (const flowName of ['q10', 'q100']) {
+    it(`${flowName}: normal- and critical-depth lines stand at the engine's depths above the bed in every reach`, () => {
+      for (const [role, kind] of [
+        ['normal-depth-line', 'normal'],
+        ['critical-depth-line', 'critical'],
+      ] as const) {
+        const path = byRole(drawing.elements, role, flowName)[0];
+        expect(path?.attributes['data-reach-indices']).toBe('0 1 2');
+        segments(path).forEach((segment, reachIndex) => {
+          const reach = ditch.reaches[reachIndex]!;
+          const flow = reach.flows.find((candidate) => candidate.flow === flowName)!;
+          const depthM = kind === 'normal' ? flow.normal!.depth_m : flow.critical!.depth_m;
+          expect(Math.abs(segment.start.y - drawing.y.toPx(beds[reachIndex]! + depthM))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+          expect(Math.abs(segment.end.y - drawing.y.toPx(beds[reachIndex + 1]! + depthM))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+          expect(Math.abs(segment.start.x - drawing.x.toPx(stations[reachIndex]!))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+        });
+      }
+    });
+  }
+
+  it('draws bank tops at bank height above the bed, and the free-fall outlet', () => {
+    const bankHeights = ditch.reaches.map((reach) => reach.section.bankDepth_m!);
+    segments(byRole(drawing.elements, 'bank-top')[0]).forEach((segment, index) => {
+      expect(Math.abs(segment.start.y - drawing.y.toPx(beds[index]! + bankHeights[index]!))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    });
+    expect(byRole(drawing.elements, 'outlet-free-fall')).toHaveLength(1);
+    expect(byRole(drawing.elements, 'outlet-label')[0]?.text).toBe('outlet: free fall');
+  });
+
+  it('marks an outlet water level at its elevation', () => {
+    const culvertLine = siDesign().channels[1]!;
+    const view = draw(culvertLine);
+    const level = byRole(view.elements, 'outlet-water-level')[0];
+    expect(Math.abs(numberAttribute(level, 'y1') - view.y.toPx(49.35))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    expect(byRole(view.elements, 'outlet-label')[0]?.text).toBe('outlet: water level 49.35 m');
+  });
+
+  it('without any invert, plots elevations relative to the outlet invert and says so', () => {
+    const relative: ChannelResult = { ...ditch, reaches: ditch.reaches.map((reach) => ({ ...reach, upstreamInvert_m: null, downstreamInvert_m: null })) };
+    expect(placeReaches(relative).datum).toBe('relative-to-outlet');
+    const view = draw(relative);
+    expect(byRole(view.elements, 'y-axis-label')[0]?.text).toBe('elevation relative to outlet invert (m)');
+    const vertices = pathVertices(byRole(view.elements, 'bed')[0]?.attributes['d'] ?? '');
+    expect(Math.abs(vertices[vertices.length - 1]!.y - view.y.toPx(0))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    expect(Math.abs(vertices[0]!.y - view.y.toPx(beds[0]! - beds[3]!))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+  });
+
+  it('says why a channel of zero length is not drawn', () => {
+    const empty: ChannelResult = { ...ditch, reaches: [] };
+    const parsed = parseMarkup(renderLongitudinalSvg(empty, 'SI', { id: 'empty' }));
+    expect(byRole(parsed.elements, 'not-drawn-reason')[0]?.text).toBe('Not drawn: the channel has no reach with a length.');
+  });
+});
+
+/**
+ * A steep rectangular chute onto a mild one, both 1.0 m wide, n = 0.014, Q = 1.0 m3/s (invented). The mild
+ * reach's normal depth exceeds the sequent depth of the chute's normal depth, so the jump stands on the chute:
+ * an S1 curve rises from the sequent depth at the jump to the mild normal depth at the slope break. The S1 curve
+ * is computed here by the direct-step method (Chow 1959, Sec. 10-2), the sequent depth by Belanger's equation
+ * y2 = y1 (sqrt(1 + 8 F1^2) - 1) / 2 (REFERENCES.md, derived).
+ */
+describe('longitudinal view with a computed water-surface profile', () => {
+  const widthM = 1.0;
+  const manningN = 0.014;
+  const dischargeM3s = 1.0;
+  const steepSlope = 0.03;
+  const mildSlope = 0.001;
+  const steepLengthM = 60;
+  const mildLengthM = 100;
+  const geometry: SectionGeometry = fixtureGeometry('rectangle', { bottomWidth_m: widthM });
+  const normalDepth = (slope: number): number => {
+    const result = solveNormalDepth(geometry, { dischargeM3s, manningN, bedSlope: slope });
+    if (!result.converged) throw new Error('no normal depth');
+    return result.depthM;
+  };
+  const steepNormalM = normalDepth(steepSlope);
+  const mildNormalM = normalDepth(mildSlope);
+  const froude = dischargeM3s / (widthM * steepNormalM) / Math.sqrt(GRAVITY_MS2 * steepNormalM);
+  const sequentM = (steepNormalM * (Math.sqrt(1 + 8 * froude * froude) - 1)) / 2;
+
+  const energy = (y: number): number => y + (dischargeM3s / (widthM * y)) ** 2 / (2 * GRAVITY_MS2);
+  const frictionSlope = (y: number): number => {
+    const area = widthM * y;
+    const radius = area / (widthM + 2 * y);
+    return ((manningN * dischargeM3s) / (area * radius ** (2 / 3))) ** 2;
+  };
+  // S1 from the slope break (station = steepLengthM, depth = mild normal depth) upstream to the sequent depth.
+  const s1: WaterSurfaceProfilePoint[] = [{ station_m: steepLengthM, depth_m: mildNormalM }];
+  const steps = 40;
+  for (let index = 1; index <= steps; index++) {
+    const previous = s1[s1.length - 1]!;
+    const depth = mildNormalM + ((sequentM - mildNormalM) * index) / steps;
+    const meanFriction = (frictionSlope(depth) + frictionSlope(previous.depth_m)) / 2;
+    s1.push({ station_m: previous.station_m + (energy(depth) - energy(previous.depth_m)) / (steepSlope - meanFriction), depth_m: depth });
+  }
+  const jumpStationM = s1[s1.length - 1]!.station_m;
+  const points: WaterSurfaceProfilePoint[] = [
+    { station_m: 0, depth_m: steepNormalM },
+    { station_m: jumpStationM, depth_m: steepNormalM },
+    ...[...s1].reverse(),
+    { station_m: steepLengthM + mildLengthM, depth_m: mildNormalM },
+  ];
+
+  const analysis = buildAnalysis({
+    title: 'Chute onto a mild channel',
+    system: 'SI',
+    channels: [
+      {
+        name: 'spillway-channel',
+        outlet: { kind: 'normal-depth' },
+        reaches: [
+          { channel: 'spillway-channel', name: 'chute', sectionName: 'r1', shape: 'rectangle', dimensions: { bottomWidth_m: widthM }, bankDepth_m: 1.2, liningName: 'concrete', manningN, slope: steepSlope, length_m: steepLengthM, upstreamInvert_m: 20, requiredFreeboard_m: 0.15, flows: [{ flow: 'q100', description: null, discharge_m3s: dischargeM3s }], line: 4 },
+          { channel: 'spillway-channel', name: 'apron-channel', sectionName: 'r1', shape: 'rectangle', dimensions: { bottomWidth_m: widthM }, bankDepth_m: 1.2, liningName: 'concrete', manningN, slope: mildSlope, length_m: mildLengthM, requiredFreeboard_m: 0.15, flows: [{ flow: 'q100', description: null, discharge_m3s: dischargeM3s }], line: 9 },
+        ],
+      },
+    ],
+  });
+  const channel: ChannelWithProfiles = {
+    ...analysis.channels[0]!,
+    waterSurfaceProfiles: [{ flow: 'q100', points, jumps: [{ station_m: jumpStationM, upstreamDepth_m: steepNormalM, downstreamDepth_m: sequentM }] }],
+  };
+  const bedAt = (stationM: number): number => (stationM <= steepLengthM ? 20 - steepSlope * stationM : 20 - steepSlope * steepLengthM - mildSlope * (stationM - steepLengthM));
+  const view = draw(channel);
+
+  it('the scenario has its jump on the chute (mild normal depth above the sequent depth)', () => {
+    expect(mildNormalM).toBeGreaterThan(sequentM);
+    expect(jumpStationM).toBeGreaterThan(0);
+    expect(jumpStationM).toBeLessThan(steepLengthM);
+  });
+
+  it('draws the profile through every computed point', () => {
+    expect(view.problems).toEqual([]);
+    const vertices = pathVertices(byRole(view.elements, 'water-surface-profile', 'q100')[0]?.attributes['d'] ?? '');
+    expect(vertices).toHaveLength(points.length);
+    vertices.forEach((vertex, index) => {
+      const point = points[index]!;
+      expect(Math.abs(vertex.x - view.x.toPx(point.station_m))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+      expect(Math.abs(vertex.y - view.y.toPx(bedAt(point.station_m) + point.depth_m))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    });
+  });
+
+  it('marks the jump from the supercritical depth up to the sequent depth at its station', () => {
+    const jump = byRole(view.elements, 'hydraulic-jump', 'q100')[0];
+    expect(numberAttribute(jump, 'data-station-m')).toBeCloseTo(jumpStationM, 9);
+    const jumpPath = view.elements[view.elements.indexOf(jump!) + 1];
+    const [low, high] = pathVertices(jumpPath?.attributes['d'] ?? '');
+    expect(Math.abs(low!.x - view.x.toPx(jumpStationM))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    expect(Math.abs(low!.y - view.y.toPx(bedAt(jumpStationM) + steepNormalM))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    expect(Math.abs(high!.y - view.y.toPx(bedAt(jumpStationM) + sequentM))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+  });
+
+  it('ignores malformed profile points rather than drawing NaN', () => {
+    const broken: ChannelWithProfiles = {
+      ...channel,
+      waterSurfaceProfiles: [{ flow: 'q100', points: [...points, { station_m: Number.NaN, depth_m: 1 }, { station_m: 10, depth_m: Number.POSITIVE_INFINITY }], jumps: [] }],
+    };
+    const svg = renderLongitudinalSvg(broken, 'SI', { id: 'broken' });
+    expect(svg).not.toMatch(/NaN|Infinity/);
+    expect(pathVertices(byRole(parseMarkup(svg).elements, 'water-surface-profile')[0]?.attributes['d'] ?? '')).toHaveLength(points.length);
+  });
+});
