@@ -16,10 +16,6 @@ export const FAIL_POLICY_DESCRIPTIONS: Readonly<Record<FailPolicy, string>> = {
   never: 'never fail (report only)',
 };
 
-export function isFailPolicy(text: string): text is FailPolicy {
-  return (FAIL_POLICIES as readonly string[]).includes(text);
-}
-
 /** Whether the comparison fails under `policy`, and why in a few words (null when it passes). */
 export function failureReason(report: ComparisonReport, policy: FailPolicy): string | null {
   const { newErrors, errorsAfter, warningsAfter } = report.counts;

@@ -137,7 +137,7 @@ export function iterateDepth(
   return { converged: false, depthM, iterations: DEPTH_SOLVE_MAX_ITERATIONS, evaluations, failure: 'limit' };
 }
 
-/** ln r; near r = 1 by the series 2 artanh(w), w = (r - 1)/(r + 1), to w^5 (relative error below 1e-6 there). */
+/** ln r; near r = 1 by the series 2 artanh(w), w = (r - 1)/(r + 1), to w^5 (relative error below 5e-6 there). */
 function naturalLogNearOne(ratio: number): number {
   if (ratio > 0.7 && ratio < 1.4) {
     const w = (ratio - 1) / (ratio + 1);

@@ -167,11 +167,11 @@ export function renderCrossSectionSvg(reach: ReachResult, system: UnitSystem, op
     }
     if (topM > outlineTopM) {
       // The prism extended above the bank, on which the engine solves an over-topping flow.
-      const leftUpper = surfaceEdgesM(section, geometry, topM);
-      const leftLower = surfaceEdgesM(section, geometry, outlineTopM);
+      const edgesAtDrawingTop = surfaceEdgesM(section, geometry, topM);
+      const edgesAtBank = surfaceEdgesM(section, geometry, outlineTopM);
       parts.push(
-        `<path class="section-extension" data-role="section-extension" d="M${px(X(leftLower.leftM))} ${px(Y(outlineTopM))} L${px(X(leftUpper.leftM))} ${px(Y(topM))} ` +
-          `M${px(X(leftLower.rightM))} ${px(Y(outlineTopM))} L${px(X(leftUpper.rightM))} ${px(Y(topM))}"/>`,
+        `<path class="section-extension" data-role="section-extension" d="M${px(X(edgesAtBank.leftM))} ${px(Y(outlineTopM))} L${px(X(edgesAtDrawingTop.leftM))} ${px(Y(topM))} ` +
+          `M${px(X(edgesAtBank.rightM))} ${px(Y(outlineTopM))} L${px(X(edgesAtDrawingTop.rightM))} ${px(Y(topM))}"/>`,
       );
     }
   }

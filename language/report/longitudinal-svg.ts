@@ -245,27 +245,30 @@ export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: Unit
   const exaggerationText = formatSignificant(exaggeration, 2);
   parts.push(`<text class="fig-note" data-role="scale-note" x="${px(PLOT.left)}" y="${px(PLOT.top - 24)}">${escapeHtml(DRAWING_WORDS.verticalExaggeration(exaggerationText))}</text>`);
 
-  // Legend: the fixed lines, then each flow.
-  const legend: string[] = [
+  // Legend: the fixed lines in the left column, one row per flow in the right column.
+  const fixedRows: string[] = [
     `<path class="bed-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.bed)}</text>`,
     `<path class="bank-top-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.bankTopOrCrown)}</text>`,
-    ...flowNames.map(
-      (flowName) =>
-        `<path class="normal-line ${colourOf(flowName)}" d="M0 -4 H22"/><path class="critical-line ${colourOf(flowName)}" d="M200 -4 H222"/>` +
-        `<text class="fig-label" x="30" y="0">${escapeHtml(`${truncateLabel(flowName, 16)}: ${DRAWING_WORDS.normalDepthLine}`)}</text>` +
-        `<text class="fig-label" x="230" y="0">${escapeHtml(DRAWING_WORDS.criticalDepthLine)}</text>`,
-    ),
     ...(profiles.length > 0
-      ? [`<path class="profile-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(`${DRAWING_WORDS.computedWaterSurface}; arrow: ${DRAWING_WORDS.hydraulicJump}`)}</text>`]
+      ? [
+          `<path class="profile-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.computedWaterSurface)}</text>`,
+          `<path class="jump-legend" d="M11 2 V-10 M7 -4 L11 -10 L15 -4"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text>`,
+        ]
       : []),
   ];
+  const flowRows = flowNames.map(
+    (flowName) =>
+      `<path class="normal-line ${colourOf(flowName)}" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(`${truncateLabel(flowName, 18)}: ${DRAWING_WORDS.normalDepthLine}`)}</text>` +
+      `<path class="critical-line ${colourOf(flowName)}" d="M210 -4 H232"/><text class="fig-label" x="240" y="0">${escapeHtml(DRAWING_WORDS.criticalDepthLine)}</text>`,
+  );
   const legendTop = PLOT.top + PLOT.height + LEGEND_TOP_GAP;
-  const perColumn = Math.ceil(legend.length / 2);
-  legend.forEach((row, index) => {
-    const column = Math.floor(index / perColumn);
-    parts.push(`<g class="legend-row" transform="translate(${PLOT.left + column * 380} ${legendTop + (index % perColumn) * LEGEND_ROW_HEIGHT})">${row}</g>`);
+  fixedRows.forEach((row, index) => {
+    parts.push(`<g class="legend-row" transform="translate(${PLOT.left} ${legendTop + index * LEGEND_ROW_HEIGHT})">${row}</g>`);
   });
-  const height = legendTop + perColumn * LEGEND_ROW_HEIGHT;
+  flowRows.forEach((row, index) => {
+    parts.push(`<g class="legend-row" data-role="legend-flow" transform="translate(${PLOT.left + 330} ${legendTop + index * LEGEND_ROW_HEIGHT})">${row}</g>`);
+  });
+  const height = legendTop + Math.max(fixedRows.length, flowRows.length) * LEGEND_ROW_HEIGHT;
   return (
     openSvg({
       id: options.id,

@@ -57,7 +57,8 @@ export function renderRatingCurveSvg(reach: ReachResult, system: UnitSystem, opt
   if (!(highestM > 0) || !Number.isFinite(highestM)) {
     return renderNotDrawnSvg({ id: options.id, kind: 'rating-curve', title, reason: 'there is no depth to plot (no bank height and no design depth)' });
   }
-  const depthAxisTop = isConduit ? niceCeiling(toDisplayLength(highestM) * 1.02, 5) : niceCeiling(toDisplayLength(highestM), 5);
+  // The top of the depth axis: the next round value, on a finer step than the ticks so little height is wasted.
+  const depthAxisTop = niceCeiling(toDisplayLength(highestM) * (isConduit ? 1.02 : 1), 10);
   const curveTopM = isConduit ? highestM : depthAxisTop / toDisplayLength(1);
 
   const normalCurve = hasUniformFlow ? sampleCurve(curveTopM, (depthM) => manningDischargeM3s(geometry, depthM, manningN, reach.slope)) : [];

@@ -129,7 +129,9 @@ tbody th { vertical-align: top; font-weight: 500; border-bottom: 1px solid var(-
 th.num { text-align: right; }
 td.num { text-align: right; white-space: nowrap; }
 td.name { white-space: nowrap; }
-td.finding { min-width: 18em; }
+td.finding { min-width: 14em; width: 34%; }
+table.results { font-size: 12px; }
+table.results td, table.results th { padding: 4px 6px; }
 tbody tr:nth-child(even) td, tbody tr:nth-child(even) th { background: color-mix(in srgb, var(--c-panel) 55%, transparent); }
 tr.row-fail td:first-child { box-shadow: inset 3px 0 var(--rn-fail); }
 tr.row-warning td:first-child { box-shadow: inset 3px 0 var(--rn-warn); }
@@ -198,7 +200,7 @@ svg.fig-longitudinal { max-width: 1100px; }
 .normal-line { fill: none; stroke: var(--flow); stroke-width: 1.9; }
 .critical-line { fill: none; stroke: var(--flow); stroke-width: 1.2; stroke-dasharray: 5 4; }
 .profile-line { fill: none; stroke: var(--flow, var(--c-ink)); stroke-width: 2.8; stroke-linejoin: round; }
-.jump-mark path { fill: none; stroke: var(--flow); stroke-width: 2; }
+.jump-mark path, .jump-legend { fill: none; stroke: var(--flow, var(--c-ink)); stroke-width: 2; }
 .jump-mark text { fill: var(--flow); font-weight: 600; }
 .reach-boundary { stroke: var(--c-rule-strong); stroke-width: 1; stroke-dasharray: 2 3; }
 .fig .reach-name { fill: var(--c-muted); }

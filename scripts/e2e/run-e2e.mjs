@@ -139,6 +139,11 @@ function prepareProfile(sandbox) {
   for (const file of readdirSync(join(ROOT, 'samples')).filter((name) => name.endsWith('.runnel'))) {
     cpSync(join(ROOT, 'samples', file), join(profile.workspace, file));
   }
+  // A repository with the samples committed, so "Compare with Last Commit" has a commit to compare with.
+  const git = (...args) => run('git', ['-c', 'user.name=Runnel e2e', '-c', 'user.email=e2e@example.invalid', ...args], { cwd: profile.workspace });
+  git('init', '-q');
+  git('add', '.');
+  git('commit', '-q', '-m', 'Designs as issued');
   writeFileSync(profile.config, 'bind-addr: 127.0.0.1:0\nauth: none\ncert: false\n');
   writeFileSync(
     join(profile.userData, 'User', 'settings.json'),
@@ -287,7 +292,13 @@ async function driveEditor(browser, port, workspace) {
     const scrollAfter = await after.evaluate(() => window.scrollY);
     if (Math.abs(scrollAfter - scrolledTo) > 1) throw new Error(`scrolled to ${scrolledTo} before the edit, ${scrollAfter} after`);
     await page.screenshot({ path: join(OUTPUT, 'report-after-edit.png') });
-    await page.keyboard.press('Control+Z');
+  });
+
+  await check('compares the edited design with the last commit, beside the text', async () => {
+    await runQuickOpen(page, DESIGN_FILE);
+    await runCommand(page, 'Runnel: Compare with Last Commit');
+    await page.locator('.tab[aria-label*="compared with the last commit"]').first().waitFor();
+    await page.screenshot({ path: join(OUTPUT, 'compare-with-last-commit.png') });
   });
 
   await page.close();

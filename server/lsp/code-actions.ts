@@ -36,7 +36,7 @@ import {
 import { reachParts } from '../../language/analysis/design-inputs.js';
 import type { DesignAnalysis, ReachResult } from '../../language/analysis/model.js';
 import { findUnit, unitsOfDimension, DISPLAY_UNITS, type Dimension, type UnitSystem } from '../../language/units/units.js';
-import { analysisOf, reachResultOf } from './document-analysis.js';
+import { reachResultOf, type DocumentAnalyses } from './document-analysis.js';
 import { sizeSection, sizingInputsOf, type SizingResult } from './section-sizing.js';
 
 /** Diagnostic codes the actions answer (validation's catalogue: language/validation/diagnostic-messages.ts). */
@@ -49,7 +49,10 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
   private readonly indexManager: IndexManager;
   private disabledSupport = false;
 
-  constructor(services: LangiumServices) {
+  constructor(
+    services: LangiumServices,
+    private readonly analyses: DocumentAnalyses,
+  ) {
     this.references = services.references.References;
     this.indexManager = services.shared.workspace.IndexManager;
     services.shared.lsp.LanguageServer.onInitialize((params) => {
@@ -64,7 +67,7 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
     const findingDiagnostics: Diagnostic[] = [];
     for (const diagnostic of params.context.diagnostics) {
       const code = diagnosticCode(diagnostic);
-      if (code === CODES.unitMissing) actions.push(...addUnitActions(document, diagnostic));
+      if (code === CODES.unitMissing) actions.push(...addUnitActions(document, diagnostic, this.analyses.of(document).displayUnits));
       else if (code === CODES.unitUnknown) actions.push(...replaceWithSuggestion(document, diagnostic, 'unit'));
       else if (code === CODES.unknownReference) actions.push(...replaceWithSuggestion(document, diagnostic, 'name'), ...createStubActions(document, root, diagnostic));
       else if (dataOf(diagnostic)['source'] === 'analysis') findingDiagnostics.push(diagnostic);
@@ -83,7 +86,7 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
     const leaf = CstUtils.findLeafNodeAtOffset(rootCst, document.textDocument.offsetAt(position));
     const reach = leaf === undefined ? undefined : AstUtils.getContainerOfType(leaf.astNode, isReach);
     if (reach === undefined) return undefined;
-    const analysis = analysisOf(document);
+    const analysis = this.analyses.of(document);
     const result = reachResultOf(analysis, reach);
     const section = reachParts(reach).sectionUse?.section?.ref;
     if (result === undefined || section === undefined) return undefined;
@@ -198,11 +201,9 @@ function isDimension(value: unknown): value is Dimension {
 }
 
 /** `bottom width 4` -> `bottom width 4 ft`, one action per unit of the expected dimension. */
-function addUnitActions(document: LangiumDocument, diagnostic: Diagnostic): CodeAction[] {
+function addUnitActions(document: LangiumDocument, diagnostic: Diagnostic, system: UnitSystem): CodeAction[] {
   const dimension = dataOf(diagnostic)['expectedDimension'];
   if (!isDimension(dimension)) return [];
-  const root = document.parseResult.value;
-  const system = isRunnelFile(root) ? analysisOf(document).displayUnits : 'SI';
   const preferred = DISPLAY_UNITS[system][dimension];
   const units = [...unitsOfDimension(dimension)].sort((a, b) => rank(a) - rank(b));
   function rank(unit: { symbol: string; system: string }): number {

@@ -24,11 +24,11 @@ import {
   type ResultsMarkdownResult,
 } from '../protocol.js';
 import { compareWithLastCommit } from './compare-with-last-commit.js';
-import { analysisOf, displaySystemFor } from './document-analysis.js';
+import { displaySystemFor, type DocumentAnalyses } from './document-analysis.js';
 import { contained, type ServerLog } from './error-containment.js';
 import type { RunnelSettings } from './runnel-settings.js';
 
-export function registerCustomRequests(connection: Connection, shared: LangiumSharedServices, settings: RunnelSettings, log: ServerLog): void {
+export function registerCustomRequests(connection: Connection, shared: LangiumSharedServices, analyses: DocumentAnalyses, settings: RunnelSettings, log: ServerLog): void {
   const documents = shared.workspace.LangiumDocuments;
   const textDocuments = shared.workspace.TextDocuments;
   const builder = shared.workspace.DocumentBuilder;
@@ -51,7 +51,7 @@ export function registerCustomRequests(connection: Connection, shared: LangiumSh
 
   /** The analysis as the report shows it: in the units the setting asks for. */
   const reportAnalysis = async (document: LangiumDocument): Promise<DesignAnalysis> => {
-    const analysis = analysisOf(document);
+    const analysis = analyses.of(document);
     const system = displaySystemFor(analysis, await settings.current());
     return system === analysis.displayUnits ? analysis : { ...analysis, displayUnits: system };
   };

@@ -1,19 +1,46 @@
 /**
  * The one analysis of a document version, as every LSP feature reads it. `analyzeDocument` (language/analysis)
  * computes it once per version and per set of linings and sections the design uses; validation reads it for the
- * diagnostics, and hints, hover, code actions and the report read the same object through here. The lookups
- * below (reach by its name's position) are built once per analysis object and kept with it.
+ * diagnostics, and hints, hover, code actions and the report read the same object through `DocumentAnalyses`.
+ * That service also remembers the object per linked document, so a hover or hint request finds it in constant time
+ * instead of re-checking every reach's links; it forgets it whenever the document is linked again (an edit, or a
+ * change to a linings file it uses). The lookups below (reach by position) are built once per analysis object.
  */
-import { AstUtils, GrammarUtils, type AstNode, type LangiumDocument } from 'langium';
+import { AstUtils, DocumentState, type AstNode, type LangiumDocument } from 'langium';
+import type { LangiumSharedServices } from 'langium/lsp';
 import { isReach, type Reach } from '../../language/generated/ast.js';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import type { DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
 import type { RunnelEditorSettings } from './runnel-settings.js';
 
-/** The analysis of the document's current version (cached by the analysis). */
+/** The analysis of the document's current version (cached by the analysis itself). */
 export function analysisOf(document: LangiumDocument): DesignAnalysis {
   return analyzeDocument(document);
+}
+
+/** The analyses of the server's documents, one per linked document version. */
+export class DocumentAnalyses {
+  private readonly linked = new WeakMap<LangiumDocument, DesignAnalysis>();
+
+  constructor(shared: LangiumSharedServices) {
+    // Linking again means new text or new linings and sections: the remembered analysis is no longer the one.
+    shared.workspace.DocumentBuilder.onDocumentPhase(DocumentState.Linked, (document) => {
+      this.linked.delete(document);
+    });
+  }
+
+  /** The analysis of the document as it stands (computed if needed, never twice for one linked version). */
+  of(document: LangiumDocument): DesignAnalysis {
+    // Before linking (mid-edit, or relinking after a linings file changed) nothing is remembered.
+    if (document.state < DocumentState.Linked) return analyzeDocument(document);
+    let analysis = this.linked.get(document);
+    if (analysis === undefined) {
+      analysis = analyzeDocument(document);
+      this.linked.set(document, analysis);
+    }
+    return analysis;
+  }
 }
 
 /** The units results are shown in: the setting when it names a system, else the design's own. */
@@ -22,7 +49,7 @@ export function displaySystemFor(analysis: DesignAnalysis, settings: RunnelEdito
 }
 
 interface AnalysisIndex {
-  readonly reachByNameStart: ReadonlyMap<string, ReachResult>;
+  readonly reachByStart: ReadonlyMap<string, ReachResult>;
 }
 
 const indexes = new WeakMap<DesignAnalysis, AnalysisIndex>();
@@ -34,11 +61,11 @@ function positionKey(position: SourcePosition): string {
 function indexOf(analysis: DesignAnalysis): AnalysisIndex {
   let index = indexes.get(analysis);
   if (index === undefined) {
-    const reachByNameStart = new Map<string, ReachResult>();
+    const reachByStart = new Map<string, ReachResult>();
     for (const channel of analysis.channels) {
-      for (const reach of channel.reaches) reachByNameStart.set(positionKey(reach.nameLocation.range.start), reach);
+      for (const reach of channel.reaches) reachByStart.set(positionKey(reach.location.range.start), reach);
     }
-    index = { reachByNameStart };
+    index = { reachByStart };
     indexes.set(analysis, index);
   }
   return index;
@@ -46,9 +73,9 @@ function indexOf(analysis: DesignAnalysis): AnalysisIndex {
 
 /** The results of a reach of the analysed document, or undefined when the analysis left it out (incomplete). */
 export function reachResultOf(analysis: DesignAnalysis, reach: Reach): ReachResult | undefined {
-  const nameNode = GrammarUtils.findNodeForProperty(reach.$cstNode, 'name') ?? reach.$cstNode;
-  if (nameNode === undefined) return undefined;
-  return indexOf(analysis).reachByNameStart.get(positionKey(nameNode.range.start));
+  // ReachResult.location is the whole reach block, as reach.$cstNode.
+  const start = reach.$cstNode?.range.start;
+  return start === undefined ? undefined : indexOf(analysis).reachByStart.get(positionKey(start));
 }
 
 /** The reach a node lies in, if any. */

@@ -6,7 +6,7 @@ import type { AstNode, AstNodeDescription, LangiumDocument, CstNode } from 'lang
 import { DefaultDocumentSymbolProvider, type LangiumServices, type NodeKindProvider } from 'langium/lsp';
 import { CompletionItemKind, SymbolKind, type DocumentSymbol } from 'vscode-languageserver';
 import { isReach, isRunnelFile } from '../../language/generated/ast.js';
-import { analysisOf, reachResultOf } from './document-analysis.js';
+import { reachResultOf, type DocumentAnalyses } from './document-analysis.js';
 import { failedCheckNames, STATUS_MARKERS } from './result-text.js';
 
 const SYMBOL_KINDS: Readonly<Record<string, SymbolKind>> = {
@@ -40,7 +40,10 @@ function typeOf(node: AstNode | AstNodeDescription): string {
 }
 
 export class RunnelDocumentSymbolProvider extends DefaultDocumentSymbolProvider {
-  constructor(services: LangiumServices) {
+  constructor(
+    services: LangiumServices,
+    private readonly analyses: DocumentAnalyses,
+  ) {
     super(services);
   }
 
@@ -54,7 +57,7 @@ export class RunnelDocumentSymbolProvider extends DefaultDocumentSymbolProvider 
     const description = (node as { description?: unknown }).description;
     const text = typeof description === 'string' && description !== '' ? description : undefined;
     if (!isReach(node) || !isRunnelFile(document.parseResult.value)) return text;
-    const result = reachResultOf(analysisOf(document), node);
+    const result = reachResultOf(this.analyses.of(document), node);
     if (result === undefined || result.status === 'pass') return text;
     const status = `${STATUS_MARKERS[result.status]} ${failedCheckNames(result.flows.flatMap((flow) => flow.findings)).join(', ')}`;
     return text === undefined ? status : `${status} — ${text}`;

@@ -34,7 +34,7 @@ import { locationOf } from '../../language/analysis/source-locations.js';
 import { describeSection } from '../../language/report/section-from-result.js';
 import { escapeMarkdownInline } from '../../language/report/escape.js';
 import { DISPLAY_UNITS, fromSI, unitsOfDimension, type UnitSystem } from '../../language/units/units.js';
-import { analysisOf, reachesWithFlow, reachResultOf, sameLocation } from './document-analysis.js';
+import { reachesWithFlow, reachResultOf, sameLocation, type DocumentAnalyses } from './document-analysis.js';
 import { failedCheckNames, HOVER_ROWS, SEVERITY_MARKERS, STATUS_MARKERS } from './result-text.js';
 import type { RunnelSettings } from './runnel-settings.js';
 
@@ -48,6 +48,7 @@ export class RunnelHoverProvider implements HoverProvider {
   constructor(
     services: LangiumServices,
     private readonly settings: RunnelSettings,
+    private readonly analyses: DocumentAnalyses,
   ) {
     this.references = services.references.References;
     this.documents = services.shared.workspace.LangiumDocuments;
@@ -68,7 +69,8 @@ export class RunnelHoverProvider implements HoverProvider {
   private contentFor(document: LangiumDocument, node: AstNode, offset: number, forcedSystem: UnitSystem | undefined): string | undefined {
     const quantity = AstUtils.getContainerOfType(node, isQuantityNode);
     if (quantity !== undefined) return quantityHover(quantity);
-    const analysis = (): DesignAnalysis => analysisOf(document);
+    let analysed: DesignAnalysis | undefined;
+    const analysis = (): DesignAnalysis => (analysed ??= this.analyses.of(document));
     const system = (): UnitSystem => forcedSystem ?? analysis().displayUnits;
     const within = (property: string): boolean => {
       const cst = GrammarUtils.findNodeForProperty(node.$cstNode, property);
@@ -116,7 +118,7 @@ export class RunnelHoverProvider implements HoverProvider {
       if (reach === undefined) continue;
       total++;
       if (rows.length >= LISTED_REACHES) continue;
-      const result = reachResultOf(analysisOf(document), reach);
+      const result = reachResultOf(this.analyses.of(document), reach);
       const file = document.uri.toString() === AstUtils.getDocument(definition).uri.toString() ? '' : ` (${escapeMarkdownInline(fileName(document.uri.toString()))})`;
       rows.push(`- reach \`${reach.name ?? ''}\`${file}: ${result === undefined ? 'not analysed (incomplete)' : reachStatusText(result, system)}`);
     }

@@ -6,19 +6,22 @@
  * value instead. The tooltip lists the findings; the hover carries the full table. Which quantities show is the
  * `runnel.inlayHints.*` setting. Hints read the document version's one analysis.
  */
-import { GrammarUtils, interruptAndCheck, type LangiumDocument } from 'langium';
+import { GrammarUtils, interruptAndCheck, isCompositeCstNode, type LangiumDocument } from 'langium';
 import type { InlayHintProvider } from 'langium/lsp';
 import { CancellationToken, type InlayHint, type InlayHintParams, type Position, type Range } from 'vscode-languageserver';
 import { isChannel, isReach, isRunnelFile, type Reach } from '../../language/generated/ast.js';
 import { reachParts } from '../../language/analysis/design-inputs.js';
-import type { FlowResult } from '../../language/analysis/model.js';
+import type { FlowResult, ReachResult } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
-import { analysisOf, displaySystemFor, reachResultOf, sameLocation } from './document-analysis.js';
+import { displaySystemFor, reachResultOf, sameLocation, type DocumentAnalyses } from './document-analysis.js';
 import { findingsTooltip, flowHintText } from './result-text.js';
 import type { HintQuantities, RunnelSettings } from './runnel-settings.js';
 
 export class RunnelInlayHintProvider implements InlayHintProvider {
-  constructor(private readonly settings: RunnelSettings) {}
+  constructor(
+    private readonly settings: RunnelSettings,
+    private readonly analyses: DocumentAnalyses,
+  ) {}
 
   async getInlayHints(document: LangiumDocument, params: InlayHintParams, cancelToken = CancellationToken.None): Promise<InlayHint[]> {
     const settings = await this.settings.current();
@@ -27,7 +30,7 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
     const root = document.parseResult.value;
     if (!isRunnelFile(root)) return [];
     await interruptAndCheck(cancelToken);
-    const analysis = analysisOf(document);
+    const analysis = this.analyses.of(document);
     const system = displaySystemFor(analysis, settings);
     const hints: InlayHint[] = [];
     for (const channel of (root.members ?? []).filter(isChannel)) {
@@ -36,7 +39,7 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
         if (range === undefined || !overlaps(range, params.range)) continue;
         const result = reachResultOf(analysis, reach);
         if (result === undefined) continue;
-        hints.push(...reachHints(document, reach, result.flows, system, show));
+        hints.push(...reachHints(document, reach, result, system, show));
       }
     }
     return hints;
@@ -44,7 +47,8 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
 }
 
 /** The hints of one reach: design flows at the end of its first line, its own flows after their values. */
-export function reachHints(document: LangiumDocument, reach: Reach, flows: readonly FlowResult[], system: UnitSystem, show: HintQuantities): InlayHint[] {
+export function reachHints(document: LangiumDocument, reach: Reach, result: ReachResult, system: UnitSystem, show: HintQuantities): InlayHint[] {
+  const flows = result.flows;
   const uri = document.uri.toString();
   const ownChanges = reachParts(reach).flowChanges.flatMap((block) => block.changes ?? []);
   const hints: InlayHint[] = [];
@@ -57,7 +61,7 @@ export function reachHints(document: LangiumDocument, reach: Reach, flows: reado
     }
     hints.push(hint(change.$cstNode.range.end, flowHintText(flow, system, show, false), flow));
   }
-  const headerEnd = headerPosition(reach);
+  const headerEnd = headerPosition(reach, result);
   if (headerEnd !== undefined) hints.unshift(...headerFlows.map((flow) => hint(headerEnd, flowHintText(flow, system, show, true), flow)));
   return hints;
 }
@@ -67,13 +71,14 @@ function hint(position: Position, label: string, flow: FlowResult): InlayHint {
 }
 
 /** After the reach's `{` when it is on the line of the name, else after the name (or description). */
-function headerPosition(reach: Reach): Position | undefined {
-  const name = GrammarUtils.findNodeForProperty(reach.$cstNode, 'name');
-  if (name === undefined) return undefined;
-  const brace = GrammarUtils.findNodeForKeyword(reach.$cstNode, '{');
-  if (brace !== undefined && brace.range.start.line === name.range.start.line) return brace.range.end;
-  const description = GrammarUtils.findNodeForProperty(reach.$cstNode, 'description');
-  return description !== undefined && description.range.start.line === name.range.start.line ? description.range.end : name.range.end;
+function headerPosition(reach: Reach, result: ReachResult): Position | undefined {
+  const name = result.nameLocation.range;
+  const cst = reach.$cstNode;
+  // The `{` is a direct child of the reach's node: a short scan instead of a search of the whole block.
+  const brace = isCompositeCstNode(cst) ? cst.content.find((child) => child.text === '{' && !isCompositeCstNode(child)) : undefined;
+  if (brace !== undefined && brace.range.start.line === name.start.line) return brace.range.end;
+  const description = GrammarUtils.findNodeForProperty(cst, 'description');
+  return description !== undefined && description.range.start.line === name.start.line ? description.range.end : name.end;
 }
 
 function overlaps(range: Range, window: Range): boolean {

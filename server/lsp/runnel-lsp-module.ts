@@ -53,6 +53,8 @@ import { RunnelCodeActionProvider } from './code-actions.js';
 import { RunnelCompletionProvider } from './completion-provider.js';
 import { registerCustomRequests } from './custom-requests.js';
 import { addVersionedDiagnosticsHandler } from './diagnostics-publisher.js';
+import { DocumentAnalyses } from './document-analysis.js';
+import { RunnelDocumentBuilder } from './document-builder.js';
 import { RunnelDocumentSymbolProvider, RunnelNodeKindProvider } from './document-symbols.js';
 import { containProvider, createServerLog, guardProcess, type ServerLog } from './error-containment.js';
 import { RunnelFormatter } from './formatter.js';
@@ -64,6 +66,7 @@ import { RunnelSettings } from './runnel-settings.js';
 export interface RunnelLspAddedServices {
   readonly runnel: {
     readonly Settings: RunnelSettings;
+    readonly Analyses: DocumentAnalyses;
     readonly Log: ServerLog;
   };
 }
@@ -88,15 +91,16 @@ const EMPTY = {
 export const RunnelLspModule: Module<RunnelLspServices, PartialLangiumServices & RunnelLspAddedServices> = {
   runnel: {
     Settings: (services) => new RunnelSettings(services.shared),
+    Analyses: (services) => new DocumentAnalyses(services.shared),
     Log: (services) => createServerLog(services.shared.lsp.Connection),
   },
   lsp: {
     CompletionProvider: (services) => containProvider(new RunnelCompletionProvider(services), services.runnel.Log, 'completion', EMPTY.completion),
-    HoverProvider: (services) => containProvider(new RunnelHoverProvider(services, services.runnel.Settings), services.runnel.Log, 'hover', EMPTY.hover),
-    InlayHintProvider: (services) => containProvider(new RunnelInlayHintProvider(services.runnel.Settings), services.runnel.Log, 'inlay hints', EMPTY.inlayHints),
-    CodeActionProvider: (services) => containProvider(new RunnelCodeActionProvider(services), services.runnel.Log, 'code actions', EMPTY.codeActions),
+    HoverProvider: (services) => containProvider(new RunnelHoverProvider(services, services.runnel.Settings, services.runnel.Analyses), services.runnel.Log, 'hover', EMPTY.hover),
+    InlayHintProvider: (services) => containProvider(new RunnelInlayHintProvider(services.runnel.Settings, services.runnel.Analyses), services.runnel.Log, 'inlay hints', EMPTY.inlayHints),
+    CodeActionProvider: (services) => containProvider(new RunnelCodeActionProvider(services, services.runnel.Analyses), services.runnel.Log, 'code actions', EMPTY.codeActions),
     Formatter: (services) => containProvider(new RunnelFormatter(services), services.runnel.Log, 'formatting', EMPTY.formatter),
-    DocumentSymbolProvider: (services) => containProvider(new RunnelDocumentSymbolProvider(services), services.runnel.Log, 'document symbols', EMPTY.symbols),
+    DocumentSymbolProvider: (services) => containProvider(new RunnelDocumentSymbolProvider(services, services.runnel.Analyses), services.runnel.Log, 'document symbols', EMPTY.symbols),
     FoldingRangeProvider: (services) => containProvider(new DefaultFoldingRangeProvider(services), services.runnel.Log, 'folding', EMPTY.folding),
     DefinitionProvider: (services) => containProvider(new DefaultDefinitionProvider(services), services.runnel.Log, 'go to definition', EMPTY.definition),
     ReferencesProvider: (services) => containProvider(new DefaultReferencesProvider(services), services.runnel.Log, 'find references', EMPTY.references),
@@ -108,6 +112,9 @@ export const RunnelLspModule: Module<RunnelLspServices, PartialLangiumServices &
 export const RunnelSharedLspModule: Module<LangiumSharedServices, PartialLangiumSharedServices> = {
   lsp: {
     NodeKindProvider: () => new RunnelNodeKindProvider(),
+  },
+  workspace: {
+    DocumentBuilder: (shared) => new RunnelDocumentBuilder(shared),
   },
 };
 
@@ -130,7 +137,7 @@ export function startRunnelLanguageServer(shared: LangiumSharedServices, Runnel:
   const log = Runnel.runnel.Log;
   guardProcess(log);
   startProtocol(connection, shared);
-  registerCustomRequests(connection, shared, Runnel.runnel.Settings, log);
+  registerCustomRequests(connection, shared, Runnel.runnel.Analyses, Runnel.runnel.Settings, log);
 
   let canRefreshHints = false;
   shared.lsp.LanguageServer.onInitialize((params) => {

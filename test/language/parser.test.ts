@@ -36,8 +36,8 @@ describe('units and names', () => {
     const file = await parse('design "T"\nflows { a = 1 m3/s  b = 2 L/s  c = 3 ft3/s }');
     expect(file.members.filter(isFlowTable)[0]?.flows.map((flow) => flow.discharge?.unit)).toEqual(['m3/s', 'L/s', 'ft3/s']);
   });
-  it('lets reaches and flows be named like units (m, in) or like keywords (outlet, top)', async () => {
-    const file = await parse(`${BASE}\nflows { in = 3 cfs  top = 4 cfs }\nchannel m { reach in { section ditch lining grass slope 1 % length 10 ft } reach outlet { section ditch lining grass slope 1 % length 10 ft } outlet free fall }`);
+  it('lets reaches and flows be named like units (m, in) or like keywords (outlet, top, n)', async () => {
+    const file = await parse(`${BASE}\nflows { in = 3 cfs  top = 4 cfs  n = 5 cfs }\nchannel m { reach in { section ditch lining grass slope 1 % length 10 ft } reach outlet { section ditch lining grass slope 1 % length 10 ft } outlet free fall }`);
     const channel = file.members.find(isChannel);
     expect(channel?.name).toBe('m');
     expect(channel?.members.filter(isReach).map((reach) => reach.name)).toEqual(['in', 'outlet']);

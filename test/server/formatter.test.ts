@@ -46,19 +46,21 @@ function meaning(analysis: DesignAnalysis): unknown {
 
 describe('formatting every sample', () => {
   const samples = sampleTexts();
+  /** Designs are formatted with the shared linings beside them, so their references resolve. */
+  const sharedLinings = (name: string): Record<string, string> => (name === 'linings.runnel' ? {} : { 'linings.runnel': samples['linings.runnel'] ?? '' });
   it('has samples to format', () => {
     expect(Object.keys(samples).length).toBeGreaterThanOrEqual(3);
   });
   for (const [name, text] of Object.entries(samples)) {
     it(`${name}: formatting twice equals formatting once`, async () => {
-      const once = await format(text, name, name === 'linings.runnel' ? {} : { 'linings.runnel': samples['linings.runnel'] ?? '' });
+      const once = await format(text, name, sharedLinings(name));
       expect(once.formatted).toBeDefined();
       const twice = await format(once.formatted ?? '', name);
       expect(twice.formatted).toBe(once.formatted);
     });
 
     it(`${name}: only whitespace changes and the analysis is the same`, async () => {
-      const others = name === 'linings.runnel' ? {} : { 'linings.runnel': samples['linings.runnel'] ?? '' };
+      const others = sharedLinings(name);
       const original = await format(text, name, others);
       const reformatted = await format(original.formatted ?? '', name, others);
       expect(tokens(reformatted.workspace, original.formatted ?? '')).toEqual(tokens(original.workspace, text));

@@ -344,7 +344,10 @@ describe('the results follow edits', () => {
     await client.edit(liningsUri, 2, { start: limit, end: { line: limit.line, character: limit.character + 4 } }, '3.00');
     const after = await client.diagnostics(designUri, (params) => !params.diagnostics.some(isHillsideShear));
     expect(after.some((diagnostic) => diagnostic.code === 'overtopping')).toBe(true);
-    expect(client.serverRequests.filter((request) => request.method === 'workspace/inlayHint/refresh').length).toBeGreaterThan(refreshesBefore);
+    // The design's text did not change, so the server asks the editor to fetch its hints again.
+    const refreshes = (): number => client.serverRequests.filter((request) => request.method === 'workspace/inlayHint/refresh').length;
+    for (let attempt = 0; attempt < 40 && refreshes() <= refreshesBefore; attempt++) await delay(50);
+    expect(refreshes()).toBeGreaterThan(refreshesBefore);
     await client.edit(liningsUri, 3, { start: limit, end: { line: limit.line, character: limit.character + 4 } }, '1.00');
     await client.diagnostics(designUri, (params) => params.diagnostics.some(isHillsideShear));
   });

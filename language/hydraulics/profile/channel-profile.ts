@@ -22,7 +22,7 @@ import {
   MAXIMUM_PROFILE_STEPS,
   STEP_ENERGY_TOLERANCE_M,
 } from './profile-defaults.js';
-import type { ChannelProfileFailure, ChannelProfileInput, ChannelProfileResult, ProfileProvenance, ProfileReachInput } from './profile-types.js';
+import type { ChannelProfileFailure, ChannelProfileInput, ChannelProfileResult, ProfileProvenance, ProfileReachInput, StepControl } from './profile-types.js';
 import { describeReachFlow } from './reach-flow.js';
 import { runSubcriticalPass, surchargeFailure } from './subcritical-pass.js';
 import { runSupercriticalPass } from './supercritical-pass.js';
@@ -78,12 +78,19 @@ export function computeChannelProfile(input: ChannelProfileInput): ChannelProfil
     notes,
     maximumEnergyResidualM: assembled.maximumEnergyResidualM,
     energyToleranceM: STEP_ENERGY_TOLERANCE_M,
-    provenance: profileProvenance(alpha, lossCoefficient),
+    provenance: profileProvenance(alpha, lossCoefficient, resolved.stepSettings),
   };
 }
 
+/** The step control in force, with every default filled in. */
+export interface ResolvedStepControl {
+  readonly maximumStepLengthM: number;
+  readonly minimumStepsPerReach: number;
+  readonly maximumDepthChangeRatio: number;
+}
+
 /** How every profile is computed; the same text for hover, report and CLI. */
-export function profileProvenance(alpha: number, lossCoefficient: number): ProfileProvenance {
+export function profileProvenance(alpha: number, lossCoefficient: number, steps: ResolvedStepControl = resolveStepControl(undefined)): ProfileProvenance {
   return {
     method:
       "Standard step method on the energy equation, friction slope from Manning's equation (SI, k = 1) averaged as the arithmetic mean of the friction slopes at the two ends of each step; subcritical flow computed upstream from downstream controls, supercritical flow downstream from upstream controls; hydraulic jumps where the specific forces of the two profiles are equal.",
@@ -91,7 +98,7 @@ export function profileProvenance(alpha: number, lossCoefficient: number): Profi
       'steady flow, one discharge through every reach (no inflow along the channel)',
       'prismatic reaches: one section, roughness and bed slope each; small bed slopes (depth measured vertically, pressure hydrostatic)',
       `kinetic-energy coefficient alpha = ${alpha}; momentum coefficient beta = 1 in the jump`,
-      `step length chosen so that the depth changes by at most ${DEFAULT_MAXIMUM_DEPTH_CHANGE_RATIO * 100} % of the depth per step (unless set otherwise), and at most ${DEFAULT_MAXIMUM_STEP_LENGTH_M} m or a ${DEFAULT_MINIMUM_STEPS_PER_REACH}th of the reach`,
+      `step length chosen so that the depth changes by at most ${steps.maximumDepthChangeRatio * 100} % of the depth per step and no step crosses normal depth; steps at most ${steps.maximumStepLengthM} m long and at most 1/${steps.minimumStepsPerReach} of a reach`,
       `each step's energy equation solved to within ${STEP_ENERGY_TOLERANCE_M} m`,
       `junctions: energy continuity with a loss of ${lossCoefficient} times the change of velocity head; where no subcritical depth exists above a junction, critical depth there`,
       'free-fall outlet: critical depth at the brink (the true brink depth is lower and critical depth stands a short distance upstream: common practice)',
@@ -104,16 +111,23 @@ export function profileProvenance(alpha: number, lossCoefficient: number): Profi
   };
 }
 
+function resolveStepControl(stepControl: StepControl | undefined): ResolvedStepControl {
+  return {
+    maximumStepLengthM: stepControl?.maximumStepLengthM ?? DEFAULT_MAXIMUM_STEP_LENGTH_M,
+    minimumStepsPerReach: stepControl?.minimumStepsPerReach ?? DEFAULT_MINIMUM_STEPS_PER_REACH,
+    maximumDepthChangeRatio: stepControl?.maximumDepthChangeRatio ?? DEFAULT_MAXIMUM_DEPTH_CHANGE_RATIO,
+  };
+}
+
 interface ResolvedChannel {
   readonly reaches: readonly ResolvedReach[];
+  readonly stepSettings: ResolvedStepControl;
 }
 
 function resolveReaches(input: ChannelProfileInput, alpha: number): ResolvedChannel | ChannelProfileFailure {
   const count = input.reaches.length;
-  const stepControl = input.stepControl ?? {};
-  const maximumStepLengthM = stepControl.maximumStepLengthM ?? DEFAULT_MAXIMUM_STEP_LENGTH_M;
-  const minimumStepsPerReach = stepControl.minimumStepsPerReach ?? DEFAULT_MINIMUM_STEPS_PER_REACH;
-  const maximumDepthChangeRatio = stepControl.maximumDepthChangeRatio ?? DEFAULT_MAXIMUM_DEPTH_CHANGE_RATIO;
+  const stepSettings = resolveStepControl(input.stepControl);
+  const { maximumStepLengthM, minimumStepsPerReach, maximumDepthChangeRatio } = stepSettings;
   // Inverts from the outlet upstream: a reach without its own downstream invert continues the bed of the next.
   const downstreamInvertsM = new Array<number>(count);
   let nextUpstreamInvertM = 0;
@@ -144,7 +158,7 @@ function resolveReaches(input: ChannelProfileInput, alpha: number): ResolvedChan
     });
     stationM += reach.lengthM;
   }
-  return { reaches };
+  return { reaches, stepSettings };
 }
 
 function validateInput(input: ChannelProfileInput): ChannelProfileFailure | undefined {

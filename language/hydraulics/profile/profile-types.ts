@@ -214,7 +214,7 @@ export interface ProfileNote {
     | 'supercritical-at-outlet'
     | 'jump-swept-out-of-channel'
     | 'jump-swept-out-of-reach'
-    | 'jump-forced-at-junction'
+    | 'jump-at-junction'
     | 'inlet-drowned'
     | 'critical-depth-at-junction'
     | 'inlet-depth-not-supercritical';

@@ -49,24 +49,60 @@ export type StandardStepOutcome =
 export function solveStandardStep(flow: ReachFlow, knownDepthM: number, distanceM: number, branch: FlowBranch): StandardStepOutcome {
   const known = newEnergyFrictionState();
   evaluateEnergyFriction(flow, knownDepthM, known);
-  return solveStepFromState(flow, knownDepthM, known, distanceM, branch, newEnergyFrictionState());
+  const record = newStepRecord();
+  solveStepInto(flow, knownDepthM, known, distanceM, branch, newEnergyFrictionState(), record);
+  switch (record.kind) {
+    case 'solved':
+      return {
+        kind: 'solved',
+        depthM: record.depthM,
+        residualM: record.residualM,
+        specificEnergyM: record.specificEnergyM,
+        specificEnergySlope: record.specificEnergySlope,
+        frictionSlope: record.frictionSlope,
+        iterations: record.iterations,
+      };
+    case 'passes-critical':
+      return { kind: 'passes-critical', distanceToCriticalM: record.distanceToCriticalM };
+    case 'above-crown':
+      return { kind: 'above-crown' };
+    case 'did-not-converge':
+      return { kind: 'did-not-converge', lastDepthM: record.depthM };
+  }
+}
+
+/** The outcome of one step as a reusable record (the march solves thousands of steps without allocating). */
+interface StepRecord {
+  kind: StandardStepOutcome['kind'];
+  depthM: number;
+  residualM: number;
+  specificEnergyM: number;
+  specificEnergySlope: number;
+  frictionSlope: number;
+  iterations: number;
+  distanceToCriticalM: number;
+}
+
+function newStepRecord(): StepRecord {
+  return { kind: 'did-not-converge', depthM: 0, residualM: 0, specificEnergyM: 0, specificEnergySlope: 0, frictionSlope: 0, iterations: 0, distanceToCriticalM: 0 };
 }
 
 /**
- * The same step when E, dE/dy and Sf at the known section are already at hand (the march's hot path).
+ * The step when E, dE/dy and Sf at the known section are already at hand, written into `out`.
  *
  * Newton's method starts from an Euler predictor and usually closes in one or two iterations; the end of the
  * branch (critical depth, or a conduit's crown) is only evaluated when an iterate leaves the branch, which is also
  * when a step may have no solution. Every iterate keeps a bracket, and bisection replaces a step that leaves it.
  */
-export function solveStepFromState(
+function solveStepInto(
   flow: ReachFlow,
   knownDepthM: number,
   known: Readonly<EnergyFrictionState>,
   distanceM: number,
   branch: FlowBranch,
   scratch: EnergyFrictionState,
-): StandardStepOutcome {
+  out: StepRecord,
+): void {
   const subcritical = branch === 'subcritical';
   const sign = subcritical ? 1 : -1;
   const bedSlope = flow.bedSlope;
@@ -75,6 +111,15 @@ export function solveStepFromState(
   const knownFrictionSlope = known.frictionSlope;
   const residualAt = (state: EnergyFrictionState): number =>
     state.specificEnergyM - knownEnergyM + sign * (bedSlope - 0.5 * (knownFrictionSlope + state.frictionSlope)) * distanceM;
+  const solved = (depthM: number, residualM: number, iterations: number): void => {
+    out.kind = 'solved';
+    out.depthM = depthM;
+    out.residualM = residualM;
+    out.specificEnergyM = scratch.specificEnergyM;
+    out.specificEnergySlope = scratch.specificEnergySlope;
+    out.frictionSlope = scratch.frictionSlope;
+    out.iterations = iterations;
+  };
 
   // The bracket's ends: the branch's ends until evaluated (critical depth; zero or the highest free-surface depth).
   let lowerM = subcritical ? criticalDepthM : 0;
@@ -90,7 +135,7 @@ export function solveStepFromState(
   for (let iteration = 1; iteration <= STEP_SOLVE_MAX_ITERATIONS; iteration++) {
     evaluateEnergyFriction(flow, depthM, scratch);
     const residualM = residualAt(scratch);
-    if (Math.abs(residualM) <= STEP_ENERGY_TOLERANCE_M) return solved(depthM, residualM, scratch, iteration);
+    if (Math.abs(residualM) <= STEP_ENERGY_TOLERANCE_M) return solved(depthM, residualM, iteration);
     // On the subcritical branch g increases with y, on the supercritical branch it decreases.
     if (residualM < 0 === subcritical) lowerM = depthM;
     else upperM = depthM;
@@ -102,16 +147,20 @@ export function solveStepFromState(
         branchEndChecked = true;
         evaluateEnergyFriction(flow, criticalDepthM, scratch);
         const criticalResidualM = residualAt(scratch);
-        if (Math.abs(criticalResidualM) <= STEP_ENERGY_TOLERANCE_M) return solved(criticalDepthM, criticalResidualM, scratch, iteration);
+        if (Math.abs(criticalResidualM) <= STEP_ENERGY_TOLERANCE_M) return solved(criticalDepthM, criticalResidualM, iteration);
         if (criticalResidualM > 0) {
           // g(yc) is linear in the step length: the profile reaches yc after the direct step to it.
           const rate = sign * (bedSlope - 0.5 * (knownFrictionSlope + scratch.frictionSlope));
-          const distanceToCriticalM = rate > 0 ? Math.min(distanceM, Math.max(0, (knownEnergyM - scratch.specificEnergyM) / rate)) : 0;
-          return { kind: 'passes-critical', distanceToCriticalM };
+          out.kind = 'passes-critical';
+          out.distanceToCriticalM = rate > 0 ? Math.min(distanceM, Math.max(0, (knownEnergyM - scratch.specificEnergyM) / rate)) : 0;
+          return;
         }
         if (subcritical && Number.isFinite(flow.highestFreeSurfaceDepthM) && upperM === flow.highestFreeSurfaceDepthM) {
           evaluateEnergyFriction(flow, upperM, scratch);
-          if (residualAt(scratch) < 0) return { kind: 'above-crown' };
+          if (residualAt(scratch) < 0) {
+            out.kind = 'above-crown';
+            return;
+          }
         }
       }
       nextM = midpoint(lowerM, upperM);
@@ -119,23 +168,12 @@ export function solveStepFromState(
     if (Number.isFinite(upperM) && upperM - lowerM <= 4 * Number.EPSILON * upperM) {
       // The bracket cannot shrink further in double precision: the root is here to machine accuracy.
       evaluateEnergyFriction(flow, nextM, scratch);
-      return solved(nextM, residualAt(scratch), scratch, iteration);
+      return solved(nextM, residualAt(scratch), iteration);
     }
     depthM = nextM;
   }
-  return { kind: 'did-not-converge', lastDepthM: depthM };
-}
-
-function solved(depthM: number, residualM: number, state: EnergyFrictionState, iterations: number): StandardStepOutcome {
-  return {
-    kind: 'solved',
-    depthM,
-    residualM,
-    specificEnergyM: state.specificEnergyM,
-    specificEnergySlope: state.specificEnergySlope,
-    frictionSlope: state.frictionSlope,
-    iterations,
-  };
+  out.kind = 'did-not-converge';
+  out.depthM = depthM;
 }
 
 /** Bisection point of a bracket; an open bracket (upper infinite) is grown instead. */
@@ -173,8 +211,6 @@ export interface ReachMarch {
   /** Stations (m, along the reach from its upstream end) in march order, starting with the start station. */
   readonly stationsM: number[];
   readonly depthsM: number[];
-  /** Energy-equation residual of the step that produced each station, m (0 for the start). */
-  readonly residualsM: number[];
   readonly end: MarchEnd;
 }
 
@@ -198,7 +234,6 @@ export function marchAlongReach(
   const sign = -direction;
   const stationsM = [startStationM];
   const depthsM = [startDepthM];
-  const residualsM = [0];
   const scratch = newEnergyFrictionState();
   const known = newEnergyFrictionState();
   evaluateEnergyFriction(flow, startDepthM, known);
@@ -219,8 +254,9 @@ export function marchAlongReach(
   // converging): such a step is shortened. Crossings within a hair of yn are rounding and are let through.
   const normalDepthM = flow.slopeClass === 'mild' || flow.slopeClass === 'steep' ? flow.normalDepthM : undefined;
   const normalDepthBandM = NORMAL_DEPTH_CROSSING_BAND_RATIO * (normalDepthM ?? 0);
-  const finish = (end: MarchEnd): ReachMarch => ({ stationsM, depthsM, residualsM, end });
+  const finish = (end: MarchEnd): ReachMarch => ({ stationsM, depthsM, end });
 
+  const step = newStepRecord();
   for (;;) {
     const remainingM = Math.abs(endStationM - stationM);
     if (remainingM <= negligibleDistanceM) return finish('reached-end');
@@ -230,12 +266,12 @@ export function marchAlongReach(
     let trialM = remainingM <= stepLengthM ? remainingM : remainingM < 1.25 * stepLengthM ? remainingM / 2 : stepLengthM;
     const depthChangeBoundM = settings.maximumDepthChangeRatio * depthM;
     let shortened = false;
-    let accepted: { depthM: number; energyM: number; energySlope: number; frictionSlope: number; residualM: number; distanceM: number } | undefined;
+    let accepted = false;
     let reachedCritical = false;
-    for (let attempt = 0; attempt < STEP_SOLVE_MAX_ITERATIONS && accepted === undefined; attempt++) {
-      const outcome = solveStepFromState(flow, depthM, known, trialM, branch, scratch);
-      if (outcome.kind === 'solved') {
-        const changeM = Math.abs(outcome.depthM - depthM);
+    for (let attempt = 0; attempt < STEP_SOLVE_MAX_ITERATIONS && !accepted; attempt++) {
+      solveStepInto(flow, depthM, known, trialM, branch, scratch, step);
+      if (step.kind === 'solved') {
+        const changeM = Math.abs(step.depthM - depthM);
         if (changeM > depthChangeBoundM && trialM > negligibleDistanceM) {
           trialM *= Math.max(0.1, (0.8 * depthChangeBoundM) / changeM);
           shortened = true;
@@ -243,60 +279,50 @@ export function marchAlongReach(
         }
         if (
           normalDepthM !== undefined &&
-          (depthM - normalDepthM) * (outcome.depthM - normalDepthM) < 0 &&
-          Math.abs(outcome.depthM - normalDepthM) > normalDepthBandM &&
+          (depthM - normalDepthM) * (step.depthM - normalDepthM) < 0 &&
+          Math.abs(step.depthM - normalDepthM) > normalDepthBandM &&
           trialM > negligibleDistanceM
         ) {
           trialM *= 0.5;
           shortened = true;
           continue;
         }
-        accepted = {
-          depthM: outcome.depthM,
-          energyM: outcome.specificEnergyM,
-          energySlope: outcome.specificEnergySlope,
-          frictionSlope: outcome.frictionSlope,
-          residualM: outcome.residualM,
-          distanceM: trialM,
-        };
-      } else if (outcome.kind === 'passes-critical') {
-        const toCriticalM = outcome.distanceToCriticalM;
+        accepted = true;
+      } else if (step.kind === 'passes-critical') {
+        const toCriticalM = step.distanceToCriticalM;
         const landsOnCritical = criticalReachable && Math.abs(flow.criticalDepthM - depthM) <= depthChangeBoundM;
         if (landsOnCritical || toCriticalM <= negligibleDistanceM) {
           // The last step lands on critical depth: the direct step to yc, which closes the energy equation exactly.
           evaluateEnergyFriction(flow, flow.criticalDepthM, scratch);
-          const residualM =
-            scratch.specificEnergyM - known.specificEnergyM + sign * (flow.bedSlope - 0.5 * (known.frictionSlope + scratch.frictionSlope)) * toCriticalM;
-          accepted = {
-            depthM: flow.criticalDepthM,
-            energyM: scratch.specificEnergyM,
-            energySlope: scratch.specificEnergySlope,
-            frictionSlope: scratch.frictionSlope,
-            residualM,
-            distanceM: toCriticalM,
-          };
+          step.kind = 'solved';
+          step.depthM = flow.criticalDepthM;
+          step.residualM = scratch.specificEnergyM - known.specificEnergyM + sign * (flow.bedSlope - 0.5 * (known.frictionSlope + scratch.frictionSlope)) * toCriticalM;
+          step.specificEnergyM = scratch.specificEnergyM;
+          step.specificEnergySlope = scratch.specificEnergySlope;
+          step.frictionSlope = scratch.frictionSlope;
+          trialM = toCriticalM;
+          accepted = true;
           reachedCritical = true;
         } else {
           trialM = 0.5 * toCriticalM;
           shortened = true;
         }
-      } else if (outcome.kind === 'above-crown') {
+      } else if (step.kind === 'above-crown') {
         return finish('above-crown');
       } else {
         return finish('did-not-converge');
       }
     }
-    if (accepted === undefined) return finish('did-not-converge');
-    if (reachedCritical && accepted.distanceM <= negligibleDistanceM) return finish('reached-critical');
-    const changeM = Math.abs(accepted.depthM - depthM);
-    stationM = accepted.distanceM >= remainingM - negligibleDistanceM ? endStationM : stationM + direction * accepted.distanceM;
-    depthM = accepted.depthM;
-    known.specificEnergyM = accepted.energyM;
-    known.specificEnergySlope = accepted.energySlope;
-    known.frictionSlope = accepted.frictionSlope;
+    if (!accepted) return finish('did-not-converge');
+    if (reachedCritical && trialM <= negligibleDistanceM) return finish('reached-critical');
+    const changeM = Math.abs(step.depthM - depthM);
+    stationM = trialM >= remainingM - negligibleDistanceM ? endStationM : stationM + direction * trialM;
+    depthM = step.depthM;
+    known.specificEnergyM = step.specificEnergyM;
+    known.specificEnergySlope = step.specificEnergySlope;
+    known.frictionSlope = step.frictionSlope;
     stationsM.push(stationM);
     depthsM.push(depthM);
-    residualsM.push(accepted.residualM);
     if (visit !== undefined && !visit(stationM, depthM)) return finish('stopped');
     if (reachedCritical) return finish('reached-critical');
     if (shortened) stepLengthM = trialM;

@@ -92,12 +92,12 @@ export function runSubcriticalPass(
     }
     const march = marchAlongReach(reach.flow, reach.lengthM, startDepthM, 0, 'subcritical', reach.march, budget);
     if (march.end === 'above-crown') {
-      const stationsM = march.stationsM.slice().reverse();
+      const stationsM = march.stationsM.reverse();
       const crownReachedAtM = stationsM[0] ?? reach.lengthM;
       surcharge = { reachIndex: index, stationM: reach.startStationM + crownReachedAtM };
       traces[index] = {
         stationsM,
-        depthsM: march.depthsM.slice().reverse(),
+        depthsM: march.depthsM.reverse(),
         noSubcriticalDepthAboveM: crownReachedAtM,
         noSubcriticalDepthReason: 'surcharged',
         endIsCriticalControl,
@@ -114,8 +114,9 @@ export function runSubcriticalPass(
         stationM,
       };
     }
-    const stationsM = march.stationsM.slice().reverse();
-    const depthsM = march.depthsM.slice().reverse();
+    // The march ran upstream: reverse its arrays in place to ascending stations.
+    const stationsM = march.stationsM.reverse();
+    const depthsM = march.depthsM.reverse();
     traces[index] = {
       stationsM,
       depthsM,

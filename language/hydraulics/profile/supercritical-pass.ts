@@ -112,7 +112,7 @@ export function runSupercriticalPass(input: SupercriticalPassInput): Supercritic
         const jump = makeJump(reach, 'at-junction', 0, crossing.depthM, downstreamDepthM, index, brinkHeadM - belowHeadM);
         jumps.push(jump);
         notes.push({
-          code: 'jump-forced-at-junction',
+          code: 'jump-at-junction',
           message: `The water below the junction of "${above.input.name}" and "${reach.input.name}" drowns the flow falling over the brink: a jump stands at the foot of the junction (station ${jump.stationM.toFixed(2)} m).`,
           reachIndex: index,
           stationM: jump.stationM,
@@ -129,7 +129,7 @@ export function runSupercriticalPass(input: SupercriticalPassInput): Supercritic
           pieces[index - 1] = { ...previous, resumeSubcriticalAfterM: above.lengthM, jumpDownstreamDepthM: downstreamDepthM };
         }
         notes.push({
-          code: 'jump-forced-at-junction',
+          code: 'jump-at-junction',
           message: forced
             ? `Supercritical flow cannot pass the junction of "${above.input.name}" and "${reach.input.name}" on its own energy (a rise of the bed or a narrowing): a jump is forced there (station ${jump.stationM.toFixed(2)} m). The flow there is rapidly varied: check it with a local model.`
             : `The water below the junction of "${above.input.name}" and "${reach.input.name}" drowns the supercritical flow: the jump stands at the junction (station ${jump.stationM.toFixed(2)} m).`,
@@ -183,7 +183,8 @@ export function runSupercriticalPass(input: SupercriticalPassInput): Supercritic
     const exitFroude = froudeNumber(last.flow.section, exitDepthM, last.flow.dischargeM3s);
     const tailwaterDepthM = input.tailwaterDepthM;
     const sequent = solveSequentDepth(last.flow.section, exitDepthM, last.flow.dischargeM3s);
-    if (tailwaterDepthM !== undefined && sequent.converged && tailwaterDepthM > exitDepthM) {
+    // Only subcritical water beyond the outlet can hold a jump; shallower water lets the flow run on (or fall) freely.
+    if (tailwaterDepthM !== undefined && sequent.converged && tailwaterDepthM > last.flow.criticalDepthM) {
       const jump = makeJump(last, 'beyond-outlet', last.lengthM, exitDepthM, sequent.sequentDepthM, active.fromReachIndex);
       jumps.push(jump);
       notes.push({

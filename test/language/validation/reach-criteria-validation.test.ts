@@ -1,6 +1,6 @@
 /** Reaches, channels, flows and criteria blocks. */
-import { describe, it } from 'vitest';
-import { BASE, CHANNEL, expectDiagnostic, expectNoDiagnostic } from '../language-test-kit.js';
+import { describe, expect, it } from 'vitest';
+import { BASE, CHANNEL, buildText, expectDiagnostic, expectNoDiagnostic, marked, plainDiagnostics } from '../language-test-kit.js';
 
 describe('reach-incomplete', () => {
   it('asks for a lining at the reach name', () =>
@@ -148,4 +148,28 @@ describe('criteria', () => {
       severity: 'error',
       message: 'The freeboard is given twice in this criteria block; remove one.',
     }));
+});
+
+describe('a flow a closed conduit can never carry (reported from the analysis)', () => {
+  // Circle D = 0.6 m, n = 0.013, S = 0.01: Qfull = (1/n)(pi D^2/4)(D/4)^(2/3) S^(1/2) (closed form, derived) and
+  // Qmax = 1.07571 Qfull (REFERENCES.md P2, Chow 1959 Ch. 6; from memory, high).
+  const fullCapacity = (1 / 0.013) * ((Math.PI * 0.6 ** 2) / 4) * (0.6 / 4) ** (2 / 3) * Math.sqrt(0.01);
+  const source = (dischargeM3s: number): string =>
+    `design "T"\nunits SI\nflows { q = ${dischargeM3s} m3/s }\nsection pipe circle { diameter 0.6 m }\nlining concrete { n 0.013 }\nchannel c { reach <|r|> { section pipe lining concrete slope 1 % length 50 m } outlet free fall }`;
+
+  it('is an error at the reach name, stating the capacities', async () => {
+    const { text, ranges } = marked(source(1.0));
+    const diagnostics = plainDiagnostics(await buildText(text)).filter((diagnostic) => diagnostic.code === 'conduit-over-capacity');
+    expect(diagnostics).toHaveLength(1);
+    expect(diagnostics[0]?.severity).toBe('error');
+    expect(diagnostics[0]?.range).toEqual(ranges[0]);
+    const match = /^q \(1 m3\/s\) is more than conduit 'pipe' can carry in open-channel flow: its largest uniform-flow capacity is ([\d.]+) m3\/s \(([\d.]+) m3\/s flowing full\)\. It would flow under pressure\.$/.exec(diagnostics[0]?.message ?? '');
+    expect(match, diagnostics[0]?.message).not.toBeNull();
+    expect(Math.abs(Number(match?.[1]) / (1.07571 * fullCapacity) - 1)).toBeLessThan(0.005);
+    expect(Math.abs(Number(match?.[2]) / fullCapacity - 1)).toBeLessThan(0.005);
+  });
+  it('is not reported for a flow the pipe carries partly full', async () => {
+    const document = await buildText(marked(source(0.5 * fullCapacity)).text);
+    expect(plainDiagnostics(document).map((diagnostic) => diagnostic.code)).not.toContain('conduit-over-capacity');
+  });
 });

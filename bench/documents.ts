@@ -1,0 +1,243 @@
+import '../language/polyfills/object-group-by.cjs'; // Object.groupBy for chevrotain 13 on Node 20: before Langium.
+/**
+ * Document-scale speed of the language server: what one edit costs in a design of 50, 500 and 5,000 reaches with 3
+ * design flows. Run with `npm run bench` (all bench modules) or `npx tsx bench/documents.ts`.
+ *
+ * In process (the server's own services, no connection), after one edit to a reach's slope, median of the timed
+ * edits:
+ * - Langium parse and link: from the update to the edited document's references being indexed;
+ * - validation: every Runnel check including the findings as diagnostics (analysis included, computed once);
+ * - our own work, each timed alone: the analysis computed afresh, the validation checks with the analysis cached
+ *   (diagnostics), and the inlay hints of the whole document; their sum is the budget figure (under 50 ms at 500
+ *   reaches on this machine, issue 4);
+ * - hover on a reach name (budget under 5 ms).
+ * Over the protocol (the bundled server over stdio): from sending `didChange` to receiving the diagnostics of that
+ * version, the whole loop an editor sees.
+ *
+ * The designs are generated: channels of 50 reaches cycling trapezoid, rectangle, V and pipe sections with grass,
+ * riprap and concrete linings, each reach 100-300 ft long on a 0.2-3 % slope; flows 10, 25 and 100 cfs (the
+ * numbers only exercise the code and are not a design).
+ */
+import { cpus, loadavg } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { pathToFileURL } from 'node:url';
+import { DocumentState, URI, type LangiumDocument } from 'langium';
+import { TextDocument } from 'vscode-languageserver-textdocument';
+import { analyzeDocument, forgetAnalysis } from '../language/analysis/analyze-design.js';
+import { LspWorkspace } from '../test/server/lsp-workspace.js';
+import { TestLanguageClient, pathToUri } from '../test/server/lsp-client.js';
+
+const SIZES = [50, 500, 5_000] as const;
+const REACHES_PER_CHANNEL = 50;
+const TIMED_EDITS = 9;
+const TIMED_HOVERS = 200;
+
+/** A generated design of `reaches` reaches and 3 flows (see the module comment). */
+export function generatedDesign(reaches: number): string {
+  const lines = [
+    `design "Generated design, ${reaches} reaches"`,
+    'units US',
+    'criteria {\n  freeboard 0.5 ft\n  minimum velocity 2 ft/s\n}',
+    'section ditch trapezoid {\n  bottom width 3 ft\n  side slopes 3:1\n  bank height 2.5 ft\n}',
+    'section lined rectangle {\n  bottom width 4 ft\n  bank height 3 ft\n}',
+    'section vee triangle {\n  side slopes 4:1, 3:1\n  bank height 2 ft\n}',
+    'section pipe circle {\n  diameter 36 in\n}',
+    'lining grass {\n  n 0.035\n  permissible shear 1.0 psf\n}',
+    'lining riprap {\n  n 0.033\n  permissible shear 4.0 psf\n}',
+    'lining concrete {\n  n 0.013\n  permissible velocity 15 ft/s\n}',
+    'flows {\n  q10  = 10 cfs  "10-year"\n  q25  = 25 cfs  "25-year"\n  q100 = 60 cfs "100-year"\n}',
+  ];
+  const sections = ['ditch', 'lined', 'vee', 'pipe'];
+  const linings = ['grass', 'riprap', 'concrete', 'concrete'];
+  for (let channel = 0; channel * REACHES_PER_CHANNEL < reaches; channel++) {
+    lines.push(`channel c${channel} {`);
+    for (let index = 0; index < REACHES_PER_CHANNEL && channel * REACHES_PER_CHANNEL + index < reaches; index++) {
+      const number = channel * REACHES_PER_CHANNEL + index;
+      const kind = number % sections.length;
+      const slopePercent = (0.2 + ((number * 37) % 280) / 100).toFixed(2);
+      const lengthFt = 100 + ((number * 53) % 200);
+      lines.push(`  reach r${number} {`, `    section ${sections[kind]}`, `    lining ${linings[kind]}`, `    slope ${slopePercent} %`, `    length ${lengthFt} ft`, '  }');
+    }
+    lines.push('  outlet free fall', '}');
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+function median(values: readonly number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const middle = Math.floor(sorted.length / 2);
+  return sorted.length % 2 === 1 ? (sorted[middle] ?? Number.NaN) : ((sorted[middle - 1] ?? 0) + (sorted[middle] ?? 0)) / 2;
+}
+
+const ms = (value: number): string => `${value < 10 ? value.toFixed(2) : value.toFixed(1)} ms`;
+
+interface InProcessFigures {
+  readonly reaches: number;
+  readonly parseAndLinkMs: number;
+  readonly validationMs: number;
+  readonly editToDiagnosticsMs: number;
+  readonly analysisMs: number;
+  readonly diagnosticsMs: number;
+  readonly hintsMs: number;
+  readonly hoverMs: number;
+  readonly diagnostics: number;
+  readonly hints: number;
+}
+
+/** The edit: the slope of reach r{n} toggles between two values, so every edit changes the results. */
+function editedText(text: string, reach: number, round: number): string {
+  return text.replace(new RegExp(`(reach r${reach} \\{\\n[^}]*?slope )[\\d.]+ %`), `$1${round % 2 === 0 ? '1.35' : '0.85'} %`);
+}
+
+async function measureInProcess(reaches: number): Promise<InProcessFigures> {
+  const workspace = await LspWorkspace.create();
+  const { shared, Runnel } = workspace.services;
+  const name = `generated-${reaches}.runnel`;
+  const base = generatedDesign(reaches);
+  const [document] = await workspace.set({ [name]: base });
+  if (document === undefined) throw new Error('no document');
+  const uri = document.uri.toString();
+
+  const phaseTimes = new Map<DocumentState, number>();
+  shared.workspace.DocumentBuilder.onDocumentPhase(DocumentState.IndexedReferences, (built) => {
+    if (built.uri.toString() === uri) phaseTimes.set(DocumentState.IndexedReferences, performance.now());
+  });
+  shared.workspace.DocumentBuilder.onDocumentPhase(DocumentState.Validated, (built) => {
+    if (built.uri.toString() === uri) phaseTimes.set(DocumentState.Validated, performance.now());
+  });
+
+  const parseAndLink: number[] = [];
+  const validation: number[] = [];
+  const editToDiagnostics: number[] = [];
+  const analysis: number[] = [];
+  const diagnostics: number[] = [];
+  const hints: number[] = [];
+  let hintCount = 0;
+  const hintProvider = Runnel.lsp.InlayHintProvider;
+  const hoverProvider = Runnel.lsp.HoverProvider;
+  const validator = Runnel.validation.DocumentValidator;
+  if (hintProvider === undefined || hoverProvider === undefined) throw new Error('providers missing');
+  const wholeRange = { start: { line: 0, character: 0 }, end: document.textDocument.positionAt(base.length) };
+
+  for (let round = 0; round < TIMED_EDITS + 2; round++) {
+    const text = editedText(base, Math.floor(reaches / 2), round);
+    const version = round + 2;
+    shared.workspace.TextDocuments.set(TextDocument.create(uri, 'runnel', version, text));
+    phaseTimes.clear();
+    const start = performance.now();
+    await shared.workspace.DocumentBuilder.update([URI.parse(uri)], []);
+    const linked = phaseTimes.get(DocumentState.IndexedReferences) ?? Number.NaN;
+    const validated = phaseTimes.get(DocumentState.Validated) ?? Number.NaN;
+
+    // Our own work, each part alone.
+    const current = workspace.document(uri);
+    forgetAnalysis(current);
+    const analysisStart = performance.now();
+    analyzeDocument(current);
+    const analysisEnd = performance.now();
+    await validator.validateDocument(current, { validation: { categories: ['built-in', 'fast'] } } as never);
+    const diagnosticsEnd = performance.now();
+    const shown = await hintProvider.getInlayHints(current, { textDocument: { uri }, range: wholeRange });
+    const hintsEnd = performance.now();
+    hintCount = shown?.length ?? 0;
+    if (round >= 2) {
+      parseAndLink.push(linked - start);
+      validation.push(validated - linked);
+      editToDiagnostics.push(validated - start);
+      analysis.push(analysisEnd - analysisStart);
+      diagnostics.push(diagnosticsEnd - analysisEnd);
+      hints.push(hintsEnd - diagnosticsEnd);
+    }
+  }
+
+  const current = workspace.document(uri);
+  const hoverLine = current.textDocument.getText().split('\n').findIndex((line) => line.includes(`reach r${Math.floor(reaches / 2)} {`));
+  const hoverTimes: number[] = [];
+  for (let index = 0; index < TIMED_HOVERS; index++) {
+    const start = performance.now();
+    await hoverProvider.getHoverContent(current, { textDocument: { uri }, position: { line: hoverLine, character: 10 } });
+    hoverTimes.push(performance.now() - start);
+  }
+  return {
+    reaches,
+    parseAndLinkMs: median(parseAndLink),
+    validationMs: median(validation),
+    editToDiagnosticsMs: median(editToDiagnostics),
+    analysisMs: median(analysis),
+    diagnosticsMs: median(diagnostics),
+    hintsMs: median(hints),
+    hoverMs: median(hoverTimes.slice(10)),
+    diagnostics: current.diagnostics?.length ?? 0,
+    hints: hintCount,
+  };
+}
+
+/** The editor's loop over stdio: didChange to the diagnostics of that version. */
+async function measureOverProtocol(reaches: number): Promise<{ openMs: number; editMs: number }> {
+  const { client } = await TestLanguageClient.start({ settings: {} });
+  try {
+    const uri = pathToUri(`/bench/generated-${reaches}.runnel`);
+    const base = generatedDesign(reaches);
+    const openStart = performance.now();
+    await client.open(uri, base, 1);
+    await client.diagnosticsOfVersion(uri, 1);
+    const openMs = performance.now() - openStart;
+    const times: number[] = [];
+    for (let round = 0; round < TIMED_EDITS + 2; round++) {
+      const version = round + 2;
+      const start = performance.now();
+      await client.replaceText(uri, version, editedText(base, Math.floor(reaches / 2), round));
+      await client.diagnosticsOfVersion(uri, version);
+      if (round >= 2) times.push(performance.now() - start);
+    }
+    return { openMs, editMs: median(times) };
+  } finally {
+    await client.stop();
+  }
+}
+
+/** Prints the figures; see the module comment for what is measured. */
+export async function run(): Promise<void> {
+  console.log(`Node ${process.version}, ${cpus().length} CPUs (${cpus()[0]?.model ?? 'unknown'}), load average ${loadavg().map((value) => value.toFixed(2)).join(' ')}`);
+  console.log(`Median of ${TIMED_EDITS} edits (slope of the middle reach) after 2 warm-up edits; hover median of ${TIMED_HOVERS - 10}.\n`);
+  const rows: string[][] = [];
+  for (const reaches of SIZES) {
+    const figures = await measureInProcess(reaches);
+    const protocol = await measureOverProtocol(reaches);
+    const ours = figures.analysisMs + figures.diagnosticsMs + figures.hintsMs;
+    rows.push([
+      String(reaches),
+      ms(figures.analysisMs),
+      ms(figures.diagnosticsMs),
+      ms(figures.hintsMs),
+      ms(ours),
+      ms(figures.parseAndLinkMs),
+      ms(figures.validationMs),
+      ms(figures.editToDiagnosticsMs),
+      ms(protocol.editMs),
+      ms(figures.hoverMs),
+      `${figures.diagnostics} / ${figures.hints}`,
+    ]);
+  }
+  const headings = [
+    'reaches',
+    'analysis',
+    'diagnostics',
+    'hints',
+    'our work',
+    'parse+link',
+    'validation',
+    'edit→diagnostics (in process)',
+    'edit→diagnostics (stdio)',
+    'hover',
+    'diagnostics / hints',
+  ];
+  console.log(`| ${headings.join(' | ')} |`);
+  console.log(`|${headings.map(() => '---:').join('|')}|`);
+  for (const row of rows) console.log(`| ${row.join(' | ')} |`);
+  console.log('\nBudget (issue 4): our work under 50 ms and hover under 5 ms at 500 reaches.');
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
+  await run();
+}

@@ -1,0 +1,325 @@
+/**
+ * Controls, breaks, junctions and the awkward cases: critical depth where it belongs (rectangle closed form
+ * yc = (q^2/g)^(1/3), derived), horizontal and adverse beds, supercritical flow throughout, jumps swept out of a
+ * reach or out of the channel, drowned controls, surcharged conduits, and bad input.
+ */
+import { describe, expect, it } from 'vitest';
+import { GRAVITY_MS2 } from '../../../language/hydraulics/constants.js';
+import { computeChannelProfile, directStepProfile, type ChannelProfile, type ChannelProfileInput, type ChannelProfileResult } from '../../../language/hydraulics/profile/index.js';
+import { circleSection, rectangleSection, trapezoidSection } from '../../../language/hydraulics/sections/index.js';
+import { solveNormalDepth } from '../../../language/hydraulics/uniform-flow.js';
+import { belangerRatio, rectangleCriticalDepthM } from './reference-integration.js';
+
+const width = 3;
+const q = 10;
+const rectangle = rectangleSection({ bottomWidthM: width });
+const yc = rectangleCriticalDepthM(q, width);
+
+function converged(result: ChannelProfileResult): ChannelProfile {
+  if (!result.converged) throw new Error(`expected a profile, got ${result.reason}: ${result.message}`);
+  return result;
+}
+
+function pointsOf(profile: ChannelProfile, reachIndex: number) {
+  return profile.points.filter((point) => point.reachIndex === reachIndex);
+}
+
+describe('critical depth controls (rectangle closed form, derived)', () => {
+  it('free fall at the end of a mild reach: critical depth at the brink, M2 above it', () => {
+    const profile = converged(computeChannelProfile({ reaches: [{ name: 'ditch', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 800 }], dischargeM3s: q, outlet: { kind: 'free-fall' } }));
+    const last = profile.points[profile.points.length - 1];
+    expect(Math.abs((last?.depthM ?? 0) - yc) / yc).toBeLessThan(1e-8);
+    expect(last?.regime).toBe('critical');
+    expect(Math.abs((last?.froudeNumber ?? 0) - 1)).toBeLessThan(1e-6);
+  });
+
+  it('break from mild to steep slope: critical depth at the break, M2 above and S2 below', () => {
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [
+          { name: 'mild', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 500 },
+          { name: 'steep', section: rectangle, manningN: 0.015, bedSlope: 0.03, lengthM: 300 },
+        ],
+        dischargeM3s: q,
+        outlet: { kind: 'free-fall' },
+      }),
+    );
+    const atBreak = pointsOf(profile, 0).at(-1);
+    expect(Math.abs((atBreak?.depthM ?? 0) - yc) / yc).toBeLessThan(1e-6);
+    expect(profile.reaches.map((reach) => reach.profileClasses[0])).toEqual(['M2', 'S2']);
+    expect(profile.jumps).toHaveLength(0);
+  });
+
+  it('drop in the bed between two mild reaches with low water below: critical depth at the brink, head dissipated there', () => {
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [
+          { name: 'upper', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 500, downstreamInvertElevationM: 3 },
+          { name: 'lower', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 500, downstreamInvertElevationM: 0 },
+        ],
+        dischargeM3s: q,
+        outlet: { kind: 'normal-depth' },
+      }),
+    );
+    const brink = pointsOf(profile, 0).at(-1);
+    expect(Math.abs((brink?.depthM ?? 0) - yc) / yc).toBeLessThan(1e-6);
+    expect(profile.notes.map((note) => note.code)).toContain('critical-depth-at-junction');
+    // Below the brink the jet is supercritical: energy carried across the junction from critical depth, then a jump.
+    const firstBelow = pointsOf(profile, 1)[0];
+    expect(firstBelow?.regime).toBe('supercritical');
+    const junction = profile.steps.find((step) => profile.points[step.upstreamPointIndex]?.reachIndex === 0 && profile.points[step.downstreamPointIndex]?.reachIndex === 1);
+    expect(junction?.kind).toBe('junction');
+    expect(Math.abs(junction?.energyResidualM ?? 1)).toBeLessThan(1e-9);
+    expect(profile.jumps).toHaveLength(1);
+    expect(profile.jumps[0]?.reachIndex).toBe(1);
+    expect(profile.reaches[1]?.profileClasses[0]).toBe('M3');
+  });
+});
+
+describe('horizontal and adverse beds', () => {
+  it('H2 above a free fall on a horizontal wide rectangular channel matches the closed-form integration (derived, 0.5 %)', () => {
+    // Wide channel (R = y), Manning: dx/dy = -(y^(10/3) - (q^2/g) y^(1/3)) / (n^2 q^2), integrated from yc at the brink:
+    // distance upstream = [3/13 (y^(13/3) - yc^(13/3)) - 3/4 (q^2/g)(y^(4/3) - yc^(4/3))] / (n^2 q^2).
+    const wideM = 10_000;
+    const unitQ = 1.2;
+    const n = 0.015;
+    const ycWide = Math.cbrt((unitQ * unitQ) / GRAVITY_MS2);
+    const closedForm = (y: number): number =>
+      ((3 / 13) * (y ** (13 / 3) - ycWide ** (13 / 3)) - (3 / 4) * ((unitQ * unitQ) / GRAVITY_MS2) * (y ** (4 / 3) - ycWide ** (4 / 3))) / (n * n * unitQ * unitQ);
+    const lengthM = 400;
+    const profile = converged(
+      computeChannelProfile({ reaches: [{ name: 'apron', section: rectangleSection({ bottomWidthM: wideM }), manningN: n, bedSlope: 0, lengthM }], dischargeM3s: unitQ * wideM, outlet: { kind: 'free-fall' } }),
+    );
+    expect(profile.reaches[0]?.profileClasses).toEqual(['H2']);
+    let worst = 0;
+    for (const point of profile.points) {
+      if (point.depthM < 1.05 * ycWide) continue; // the closed form's distance is ill-conditioned right at the brink
+      const expectedDistanceM = closedForm(point.depthM);
+      worst = Math.max(worst, Math.abs(lengthM - point.stationM - expectedDistanceM) / expectedDistanceM);
+    }
+    expect(worst, `worst relative difference ${worst}`).toBeLessThan(0.005);
+  });
+
+  it('A2 above a free fall on an adverse bed: depth grows upstream, subcritical throughout', () => {
+    const profile = converged(computeChannelProfile({ reaches: [{ name: 'adverse', section: rectangle, manningN: 0.015, bedSlope: -0.002, lengthM: 300 }], dischargeM3s: q, outlet: { kind: 'free-fall' } }));
+    expect(profile.reaches[0]?.profileClasses).toEqual(['A2']);
+    expect(profile.reaches[0]?.normalDepthM).toBeNull();
+    const depths = profile.points.map((point) => point.depthM);
+    for (let i = 1; i < depths.length; i++) expect(depths[i] ?? 0).toBeLessThanOrEqual(depths[i - 1] ?? 0);
+    expect(profile.points.slice(0, -1).every((point) => point.regime === 'subcritical')).toBe(true);
+  });
+
+  it('normal depth asked for at the outlet of a horizontal reach: no profile, and the reason', () => {
+    const result = computeChannelProfile({ reaches: [{ name: 'flat', section: rectangle, manningN: 0.015, bedSlope: 0, lengthM: 100 }], dischargeM3s: q, outlet: { kind: 'normal-depth' } });
+    expect(result.converged).toBe(false);
+    if (result.converged) return;
+    expect(result.reason).toBe('no-outlet-depth');
+  });
+});
+
+describe('supercritical flow', () => {
+  const steep: ChannelProfileInput['reaches'][number] = { name: 'chute', section: rectangle, manningN: 0.015, bedSlope: 0.03, lengthM: 400 };
+  const normalDepthM = (() => {
+    const normal = solveNormalDepth(rectangle, { dischargeM3s: q, manningN: 0.015, bedSlope: 0.03 });
+    if (!normal.converged) throw new Error('set-up');
+    return normal.depthM;
+  })();
+
+  it('supercritical throughout a steep reach: critical at the entrance, tending to normal depth, leaving supercritical', () => {
+    const profile = converged(computeChannelProfile({ reaches: [steep], dischargeM3s: q, outlet: { kind: 'free-fall' } }));
+    expect(Math.abs((profile.points[0]?.depthM ?? 0) - yc) / yc).toBeLessThan(1e-8);
+    expect(profile.points.slice(1).every((point) => point.regime === 'supercritical')).toBe(true);
+    expect(Math.abs((profile.points.at(-1)?.depthM ?? 0) - normalDepthM) / normalDepthM).toBeLessThan(0.01);
+    expect(profile.notes.map((note) => note.code)).toEqual(['supercritical-at-outlet']);
+    expect(profile.jumps).toHaveLength(0);
+  });
+
+  it('tailwater above critical depth but below the sequent depth: the jump is swept out of the channel (Belanger, derived)', () => {
+    const profile = converged(computeChannelProfile({ reaches: [steep], dischargeM3s: q, outlet: { kind: 'water-level', elevationM: 1.3 } }));
+    expect(profile.jumps).toHaveLength(1);
+    const jump = profile.jumps[0];
+    if (jump === undefined) return;
+    expect(jump.placement).toBe('beyond-outlet');
+    expect(jump.sweptOutOfReach).toBe(true);
+    const exitDepthM = profile.points.at(-1)?.depthM ?? 0;
+    const froude = q / (width * exitDepthM) / Math.sqrt(GRAVITY_MS2 * exitDepthM);
+    expect(jump.downstreamDepthM / exitDepthM).toBeCloseTo(belangerRatio(froude), 8);
+    expect(jump.downstreamDepthM).toBeGreaterThan(1.3);
+    expect(profile.notes.map((note) => note.code)).toContain('jump-swept-out-of-channel');
+  });
+
+  it('a jump swept out of the steep reach where the supercritical flow begins into the mild reach below', () => {
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [steep, { name: 'short mild', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 200 }],
+        dischargeM3s: q,
+        outlet: { kind: 'free-fall' },
+      }),
+    );
+    const jump = profile.jumps[0];
+    expect(jump?.reachIndex).toBe(1);
+    expect(jump?.supercriticalFromReachIndex).toBe(0);
+    expect(jump?.sweptOutOfReach).toBe(true);
+    expect(profile.notes.map((note) => note.code)).toContain('jump-swept-out-of-reach');
+    expect(profile.reaches[1]?.profileClasses).toEqual(['M3', 'M2']);
+  });
+
+  it('a high tailwater drowns the whole steep reach: S1 throughout, no jump, no supercritical flow', () => {
+    const profile = converged(computeChannelProfile({ reaches: [{ ...steep, lengthM: 40 }], dischargeM3s: q, outlet: { kind: 'water-level', elevationM: 4 } }));
+    expect(profile.reaches[0]?.profileClasses).toEqual(['S1']);
+    expect(profile.jumps).toHaveLength(0);
+    expect(profile.points.every((point) => point.regime === 'subcritical')).toBe(true);
+  });
+
+  it('a gate jet drowned by the water downstream: said, and the profile follows the downstream control', () => {
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [{ name: 'apron', section: rectangle, manningN: 0.015, bedSlope: 0, lengthM: 100 }],
+        dischargeM3s: q,
+        inlet: { kind: 'depth', depthM: 0.4 },
+        outlet: { kind: 'water-level', elevationM: 4 },
+      }),
+    );
+    expect(profile.notes.map((note) => note.code)).toEqual(['inlet-drowned']);
+    expect(profile.jumps).toHaveLength(0);
+  });
+});
+
+describe('outlet and inlet controls that do not control', () => {
+  it('a tailwater below critical depth acts as a free fall, and says so', () => {
+    const profile = converged(computeChannelProfile({ reaches: [{ name: 'ditch', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 300 }], dischargeM3s: q, outlet: { kind: 'water-level', elevationM: 0.5 * yc } }));
+    expect(Math.abs((profile.points.at(-1)?.depthM ?? 0) - yc) / yc).toBeLessThan(1e-8);
+    expect(profile.notes.map((note) => note.code)).toEqual(['tailwater-below-critical-depth']);
+  });
+
+  it('normal depth at the outlet of a steep reach does not control subcritical flow, and says so', () => {
+    const profile = converged(computeChannelProfile({ reaches: [{ name: 'chute', section: rectangle, manningN: 0.015, bedSlope: 0.03, lengthM: 100 }], dischargeM3s: q, outlet: { kind: 'normal-depth' } }));
+    expect(profile.notes.map((note) => note.code)).toContain('outlet-normal-depth-supercritical');
+  });
+
+  it('an inlet depth above critical depth does not control, and says so', () => {
+    const profile = converged(
+      computeChannelProfile({ reaches: [{ name: 'ditch', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 300 }], dischargeM3s: q, inlet: { kind: 'depth', depthM: 2 * yc }, outlet: { kind: 'free-fall' } }),
+    );
+    expect(profile.notes.map((note) => note.code)).toContain('inlet-depth-not-supercritical');
+  });
+});
+
+describe('junctions between different sections', () => {
+  it('energy continuity with a loss of k times the velocity-head change (common practice), checked from the points', () => {
+    const k = 0.3;
+    const wide = rectangleSection({ bottomWidthM: 5 });
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [
+          { name: 'wide', section: wide, manningN: 0.015, bedSlope: 0.001, lengthM: 300 },
+          { name: 'narrow', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 300 },
+        ],
+        dischargeM3s: q,
+        junctionLossCoefficient: k,
+        outlet: { kind: 'normal-depth' },
+      }),
+    );
+    const up = pointsOf(profile, 0).at(-1);
+    const down = pointsOf(profile, 1)[0];
+    if (up === undefined || down === undefined) throw new Error('no junction points');
+    const hvUp = (q / (5 * up.depthM)) ** 2 / (2 * GRAVITY_MS2);
+    const hvDown = (q / (width * down.depthM)) ** 2 / (2 * GRAVITY_MS2);
+    const residualM = up.invertElevationM + up.depthM + hvUp - (down.invertElevationM + down.depthM + hvDown) - k * Math.abs(hvUp - hvDown);
+    expect(Math.abs(residualM)).toBeLessThan(1e-9);
+    expect(up.stationM).toBe(down.stationM);
+    // The contraction raises the water upstream of it: deeper than the wide reach's own normal depth.
+    const normalWide = solveNormalDepth(wide, { dischargeM3s: q, manningN: 0.015, bedSlope: 0.001 });
+    if (!normalWide.converged) throw new Error('set-up');
+    expect(up.depthM).toBeGreaterThan(normalWide.depthM);
+  });
+});
+
+describe('reach summaries', () => {
+  it('over-topping by a backwater curve: where along the reach, checked against the direct step method', () => {
+    const section = trapezoidSection({ bottomWidthM: 1, leftSideSlopeHV: 2, rightSideSlopeHV: 2 });
+    const bankHeightM = 1.0;
+    const lengthM = 1500;
+    const outletDepthM = 1.5;
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [{ name: 'swale', section, manningN: 0.03, bedSlope: 0.002, lengthM, bankHeightM }],
+        dischargeM3s: 2,
+        outlet: { kind: 'water-level', elevationM: outletDepthM },
+      }),
+    );
+    const summary = profile.reaches[0];
+    if (summary === undefined) throw new Error('no summary');
+    // The normal depth (about 0.83 m) is below the bank, yet the backwater over-tops the downstream part of the reach.
+    expect(summary.normalDepthM ?? 2).toBeLessThan(bankHeightM);
+    const direct = directStepProfile({ section, manningN: 0.03, bedSlope: 0.002, dischargeM3s: 2, startDepthM: outletDepthM, endDepthM: bankHeightM, increments: 400 });
+    if (!direct.converged) throw new Error(direct.message);
+    const expectedFromM = lengthM + (direct.points.at(-1)?.distanceM ?? 0);
+    expect(summary.overtoppedRanges).toHaveLength(1);
+    expect(Math.abs((summary.overtoppedRanges[0]?.fromStationM ?? 0) - expectedFromM) / (lengthM - expectedFromM)).toBeLessThan(0.005);
+    expect(summary.overtoppedRanges[0]?.toStationM).toBe(lengthM);
+    expect(summary.minimumFreeboardM).toBeCloseTo(bankHeightM - outletDepthM, 9);
+    expect(summary.minimumFreeboardStationM).toBe(lengthM);
+    expect(summary.maximumDepthM).toBeCloseTo(outletDepthM, 9);
+  });
+});
+
+describe('conduits', () => {
+  it('flow beyond a pipe backing up to the crown: conduit-surcharged, with where', () => {
+    const result = computeChannelProfile({
+      reaches: [{ name: 'pipe', section: circleSection({ diameterM: 1 }), manningN: 0.013, bedSlope: 0.001, lengthM: 200 }],
+      dischargeM3s: 1.5,
+      outlet: { kind: 'free-fall' },
+    });
+    expect(result.converged).toBe(false);
+    if (result.converged) return;
+    expect(result.reason).toBe('conduit-surcharged');
+    expect(result.stationM).toBeGreaterThan(0);
+    expect(result.stationM).toBeLessThan(200);
+  });
+
+  it('a steep pipe into a flatter one: the supercritical flow and its jump keep the flatter pipe free-surface where a backwater alone would fill it', () => {
+    const pipe = circleSection({ diameterM: 0.9 });
+    const profile = converged(
+      computeChannelProfile({
+        reaches: [
+          { name: 'steep pipe', section: pipe, manningN: 0.013, bedSlope: 0.05, lengthM: 60 },
+          { name: 'flat pipe', section: pipe, manningN: 0.013, bedSlope: 0.0005, lengthM: 40 },
+        ],
+        dischargeM3s: 0.9,
+        outlet: { kind: 'water-level', elevationM: 0.8 },
+      }),
+    );
+    expect(profile.jumps[0]?.reachIndex).toBe(1);
+    expect(profile.points.every((point) => point.depthM < 0.9)).toBe(true);
+  });
+});
+
+describe('bad input never throws', () => {
+  const reach = { name: 'r', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 100 };
+  const cases: readonly { label: string; input: ChannelProfileInput }[] = [
+    { label: 'no reaches', input: { reaches: [], dischargeM3s: 1, outlet: { kind: 'free-fall' } } },
+    { label: 'zero discharge', input: { reaches: [reach], dischargeM3s: 0, outlet: { kind: 'free-fall' } } },
+    { label: 'negative length', input: { reaches: [{ ...reach, lengthM: -5 }], dischargeM3s: 1, outlet: { kind: 'free-fall' } } },
+    { label: 'zero n', input: { reaches: [{ ...reach, manningN: 0 }], dischargeM3s: 1, outlet: { kind: 'free-fall' } } },
+    { label: 'alpha below 1', input: { reaches: [reach], dischargeM3s: 1, kineticEnergyCoefficient: 0.5, outlet: { kind: 'free-fall' } } },
+    { label: 'loss coefficient of 1.2', input: { reaches: [reach], dischargeM3s: 1, junctionLossCoefficient: 1.2, outlet: { kind: 'free-fall' } } },
+    { label: 'depth-change ratio of 0.9', input: { reaches: [reach], dischargeM3s: 1, stepControl: { maximumDepthChangeRatio: 0.9 }, outlet: { kind: 'free-fall' } } },
+    { label: 'NaN outlet level', input: { reaches: [reach], dischargeM3s: 1, outlet: { kind: 'water-level', elevationM: Number.NaN } } },
+    { label: 'negative bank height', input: { reaches: [{ ...reach, bankHeightM: -1 }], dischargeM3s: 1, outlet: { kind: 'free-fall' } } },
+  ];
+  it.each(cases)('$label: invalid-input with a message', ({ input }) => {
+    const result = computeChannelProfile(input);
+    expect(result.converged).toBe(false);
+    if (result.converged) return;
+    expect(result.reason).toBe('invalid-input');
+    expect(result.message.length).toBeGreaterThan(10);
+  });
+
+  it('the provenance names the method, the friction-slope averaging and the sources', () => {
+    const profile = converged(computeChannelProfile({ reaches: [reach], dischargeM3s: 1, outlet: { kind: 'free-fall' } }));
+    expect(profile.provenance.method).toMatch(/standard step/i);
+    expect(profile.provenance.method).toMatch(/arithmetic mean of the friction slopes/);
+    expect(profile.provenance.references.join(' ')).toMatch(/Chow \(1959\)/);
+  });
+});
