@@ -32,6 +32,7 @@ import {
   hydraulicStateAt,
   manningDischargeM3s,
   maximumUniformFlowCapacityM3s,
+  NORMAL_DEPTH_BAND_RATIO,
   solveNormalDepth,
   type HydraulicState,
 } from '../hydraulics/index.js';
@@ -49,9 +50,12 @@ import {
   resolveSection,
   type FlowDischarge,
   type ResolvedLining,
+  type ResolvedReachGeometry,
   type ResolvedSection,
 } from './design-inputs.js';
 import { FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
+import { computeChannelProfiles, type ComputedFlowProfile, type ProfileReachPlan } from './channel-profiles.js';
+import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
 import type {
   ChannelResult,
   CheckStatus,
@@ -61,6 +65,7 @@ import type {
   FlowResult,
   IncompleteReach,
   LiningResult,
+  ReachFlowProfile,
   ReachResult,
   ResolvedCriteria,
   SectionResult,
@@ -225,26 +230,34 @@ function analyzeChannel(
 ): ChannelResult {
   const channelName = channel.name ?? '';
   const dischargesByReach = channelFlowDischarges(channel, flows);
-  const reaches: ReachResult[] = [];
+  const outletNode = (channel.members ?? []).find(isOutlet);
+  const outlet = outletOf(outletNode);
+
+  // Resolve every reach first: the water-surface profile runs through all of them.
+  const analysed: { readonly context: ReachContext; readonly geometry: ResolvedReachGeometry; readonly discharges: Map<Flow, FlowDischarge> }[] = [];
+  const leftOut: string[] = [];
   for (const member of channel.members ?? []) {
     if (!isReach(member)) continue;
+    const incomplete = (reason: string): void => {
+      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason, location: propertyLocationOf(member, 'name') });
+      leftOut.push(member.name ?? '');
+    };
     const geometry = resolveReachGeometry(member);
     if (!geometry.ok) {
-      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason: geometry.reason, location: propertyLocationOf(member, 'name') });
+      incomplete(geometry.reason);
       continue;
     }
     const section = resolveSection(geometry.value.section);
     if (!section.ok) {
-      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason: section.reason, location: propertyLocationOf(member, 'name') });
+      incomplete(section.reason);
       continue;
     }
     const lining = resolveLining(geometry.value.lining);
     if (!lining.ok) {
-      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason: lining.reason, location: propertyLocationOf(member, 'name') });
+      incomplete(lining.reason);
       continue;
     }
-    const criteria = resolveCriteria(designCriteria, reachParts(member).criteria, system);
-    const reachContext: ReachContext = {
+    const context: ReachContext = {
       channelName,
       reach: member,
       reachName: member.name ?? '',
@@ -254,33 +267,74 @@ function analyzeChannel(
       liningNode: geometry.value.lining,
       lining: lining.value,
       slope: geometry.value.slope,
-      criteria,
+      criteria: resolveCriteria(designCriteria, reachParts(member).criteria, system),
       formatter,
     };
-    const discharges = dischargesByReach.get(member) ?? new Map<Flow, FlowDischarge>();
+    analysed.push({ context, geometry: geometry.value, discharges: dischargesByReach.get(member) ?? new Map<Flow, FlowDischarge>() });
+  }
+
+  // One profile per design flow through the whole channel.
+  const profileReaches: ProfileReachPlan[] = analysed.map(({ context, geometry, discharges }) => ({
+    name: context.reachName,
+    section: context.section.geometry,
+    manningN: context.lining.manningN,
+    slope: geometry.slope,
+    lengthM: geometry.lengthM,
+    bankHeightM: context.section.fullDepthM === null ? context.section.bankDepthM : null,
+    upstreamInvertM: geometry.upstreamInvertM,
+    downstreamInvertM: geometry.downstreamInvertM,
+    dischargesM3s: new Map([...discharges].map(([flow, discharge]) => [flow.name ?? '', discharge.dischargeM3s])),
+  }));
+  const silentObstacle =
+    leftOut.length > 0 ? `Reach${leftOut.length > 1 ? 'es' : ''} ${leftOut.map((name) => `'${name}'`).join(', ')} could not be analysed, so the channel has no continuous profile.` : analysed.length === 0 ? 'The channel has no reach to compute.' : null;
+  const profiles = computeChannelProfiles({ reaches: profileReaches, outlet, silentObstacle }, uniqueNames(flows));
+  const profileByFlow = new Map(profiles.map((profile) => [profile.model.flow, profile]));
+  const findingReaches: ReachForFindings[] = analysed.map(({ context }) => ({
+    name: context.reachName,
+    sectionName: context.sectionNode.name ?? '',
+    section: context.section.geometry,
+    sectionLocation: locationOf(context.sectionNode),
+    manningN: context.lining.manningN,
+    liningName: context.liningNode.name ?? '',
+    liningLocation: locationOf(context.liningNode),
+    maxVelocityMps: context.lining.maxVelocityMps,
+    maxShearPa: context.lining.maxShearPa,
+  }));
+  const outletLocation = outletNode === undefined ? null : locationOf(outletNode);
+  const draftsByFlow = new Map(profiles.map((profile) => [profile.model.flow, profileFindingDrafts(findingReaches, profile, formatter, outletLocation)]));
+
+  const reaches: ReachResult[] = analysed.map(({ context, geometry, discharges }, reachIndex) => {
     const flowResults = flows.flatMap((flow) => {
       const discharge = discharges.get(flow);
-      return discharge === undefined ? [] : [analyzeFlow(reachContext, discharge)];
+      if (discharge === undefined) return [];
+      const flowName = flow.name ?? '';
+      const profile = profileByFlow.get(flowName);
+      return [analyzeFlow(context, discharge, { profile, reachProfile: profile?.reachProfiles[reachIndex] ?? null, drafts: draftsByFlow.get(flowName)?.get(reachIndex) ?? [] })];
     });
-    reaches.push({
+    return {
       channel: channelName,
-      name: reachContext.reachName,
-      location: locationOf(member),
-      nameLocation: reachContext.reachNameLocation,
-      section: sectionResult(geometry.value.section, section.value),
-      lining: liningResult(geometry.value.lining, lining.value),
-      slope: geometry.value.slope,
-      length_m: geometry.value.lengthM,
-      upstreamInvert_m: geometry.value.upstreamInvertM,
-      downstreamInvert_m: geometry.value.downstreamInvertM,
-      bankfullCapacity_m3s: bankfullCapacityM3s(section.value, lining.value, geometry.value.slope),
-      criteria,
+      name: context.reachName,
+      location: locationOf(context.reach),
+      nameLocation: context.reachNameLocation,
+      section: sectionResult(geometry.section, context.section),
+      lining: liningResult(geometry.lining, context.lining),
+      slope: geometry.slope,
+      length_m: geometry.lengthM,
+      upstreamInvert_m: geometry.upstreamInvertM,
+      downstreamInvert_m: geometry.downstreamInvertM,
+      bankfullCapacity_m3s: bankfullCapacityM3s(context.section, context.lining, geometry.slope),
+      criteria: context.criteria,
       flows: flowResults,
       status: statusOf(flowResults.flatMap((flow) => flow.findings)),
       provenance: REACH_PROVENANCE,
-    });
-  }
-  return { name: channelName, location: locationOf(channel), description: channel.description ?? null, outlet: outletOf((channel.members ?? []).find(isOutlet)), reaches };
+    };
+  });
+  return { name: channelName, location: locationOf(channel), description: channel.description ?? null, outlet, reaches, profiles: profiles.map((profile) => profile.model) };
+}
+
+/** Flow names in order, each once (a repeated name is reported by validation). */
+function uniqueNames(flows: readonly Flow[]): string[] {
+  return [...new Set(flows.map((flow) => flow.name ?? ''))];
 }
 
 function outletOf(outlet: Outlet | undefined): ChannelResult['outlet'] {
@@ -325,9 +379,11 @@ function liningResult(node: Lining, lining: ResolvedLining): LiningResult {
 
 function bankfullCapacityM3s(section: ResolvedSection, lining: ResolvedLining, slope: number): number | null {
   if (!(slope > 0)) return null;
-  if (section.fullDepthM !== null) return fullFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? null;
-  if (section.bankDepthM === null) return null;
-  return manningDischargeM3s(section.geometry, section.bankDepthM, lining.manningN, slope);
+  let capacityM3s: number | undefined;
+  if (section.fullDepthM !== null) capacityM3s = fullFlowCapacityM3s(section.geometry, lining.manningN, slope);
+  else if (section.bankDepthM !== null) capacityM3s = manningDischargeM3s(section.geometry, section.bankDepthM, lining.manningN, slope);
+  // Dimensions near the limits of double precision overflow here: no capacity rather than Infinity or NaN.
+  return capacityM3s !== undefined && Number.isFinite(capacityM3s) ? capacityM3s : null;
 }
 
 // ------------------------------------------------------------------------------------------------ one flow

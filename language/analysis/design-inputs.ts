@@ -81,7 +81,7 @@ export type Resolution<T> = { readonly ok: true; readonly value: T } | { readonl
 /** Side slope H:V as z = H / V; undefined unless both parts are finite, H >= 0 and V > 0. */
 export function sideSlopeRatio(slope: SideSlope | undefined): number | undefined {
   if (slope === undefined || typeof slope.horizontal !== 'number' || typeof slope.vertical !== 'number') return undefined;
-  if (!(slope.vertical > 0) || !(slope.horizontal >= 0)) return undefined;
+  if (!(slope.vertical > 0) || !(slope.horizontal >= 0) || !Number.isFinite(slope.vertical)) return undefined;
   const ratio = slope.horizontal / slope.vertical;
   return Number.isFinite(ratio) ? ratio : undefined;
 }
@@ -214,6 +214,7 @@ export function resolveReachGeometry(reach: Reach): Resolution<ResolvedReachGeom
     const downstreamInvertM = quantitySI(parts.inverts.downstream);
     if (upstreamInvertM === undefined || downstreamInvertM === undefined) return { ok: false, reason: 'its inverts cannot be read' };
     const slope = (upstreamInvertM - downstreamInvertM) / lengthM;
+    if (!Number.isFinite(slope)) return { ok: false, reason: 'its inverts and length give a slope too large to compute with' };
     return { ok: true, value: { section, lining, slope, lengthM, upstreamInvertM, downstreamInvertM, slopeNode: parts.inverts } };
   }
   return { ok: false, reason: 'it has neither a slope nor inverts' };
@@ -290,7 +291,7 @@ export function resolveCriteria(designCriteria: readonly Criteria[], reachCriter
           }
           origin['freeboard'] = from;
         } else if (isFroudeBandCriterion(item)) {
-          if (!(typeof item.low === 'number' && typeof item.high === 'number' && item.low >= 0 && item.high > item.low)) continue;
+          if (!(typeof item.low === 'number' && typeof item.high === 'number' && item.low >= 0 && item.high > item.low && Number.isFinite(item.high))) continue;
           avoidFroude = { low: item.low, high: item.high };
           origin['avoidFroude'] = from;
         } else if (isMinimumVelocityCriterion(item)) {

@@ -2,6 +2,7 @@
  * The findings of the analysis: each code, its severity rule and its message, in one place. Messages give numbers
  * with units in the design's display units and name the flow they concern.
  */
+import { describeJumpType } from '../hydraulics/index.js';
 import type { UnitSystem } from '../units/units.js';
 import { formatPercent, formatQuantity, formatRatio } from './format-quantity.js';
 import { DEFAULT_NEAR_CRITICAL_FROUDE_BAND } from './criteria-defaults.js';
@@ -19,6 +20,11 @@ export const FINDING_CODES = {
   conduitTwoDepthZone: 'conduit-two-depth-zone',
   noNormalDepth: 'no-normal-depth',
   depthSolveFailed: 'depth-solve-failed',
+  hydraulicJump: 'hydraulic-jump',
+  hydraulicJumpSweptOut: 'hydraulic-jump-swept-out',
+  hydraulicJumpLiningExceeded: 'hydraulic-jump-lining-exceeded',
+  conduitSurcharged: 'conduit-surcharged',
+  profileNotComputed: 'profile-not-computed',
 } as const;
 
 export type FindingCode = (typeof FINDING_CODES)[keyof typeof FINDING_CODES];
@@ -41,11 +47,73 @@ export class MessageFormatter {
   slope(value: number): string {
     return formatQuantity(value, 'slope', this.system);
   }
+  /** A place along a channel: "station 1310 ft" (distance from the channel's upstream end). */
+  station(valueM: number): string {
+    return `station ${formatQuantity(valueM, 'length', this.system)}`;
+  }
 }
 
+/** Where a jump stands, for the jump findings. */
+export interface JumpWords {
+  readonly flow: string;
+  readonly reach: string;
+  readonly stationM: number;
+  readonly placement: 'within-reach' | 'at-junction' | 'beyond-outlet';
+  readonly upstreamDepthM: number;
+  readonly downstreamDepthM: number;
+  readonly froude: number;
+  readonly jumpType: Parameters<typeof describeJumpType>[0];
+  readonly energyLossM: number;
+}
+
+function jumpPlace(f: MessageFormatter, p: JumpWords): string {
+  return p.placement === 'at-junction' ? `at the junction at ${f.station(p.stationM)} (reach '${p.reach}')` : `in reach '${p.reach}' at ${f.station(p.stationM)}`;
+}
+
+function jumpRise(f: MessageFormatter, p: JumpWords): string {
+  return `rising from ${f.length(p.upstreamDepthM)} (Froude number ${formatRatio(p.froude)}) to ${f.length(p.downstreamDepthM)}, ${describeJumpType(p.jumpType)}`;
+}
+
+/** Stations are measured along the channel from its upstream end: said once in each message that uses them. */
+const STATIONS_FROM_HEAD = '(stations from the head of the channel)';
+
 export const FINDING_MESSAGES = {
-  overtopping: (f: MessageFormatter, p: { flow: string; normalDepthM: number; bankDepthM: number; section: string }) =>
-    `Over-topping at ${p.flow}: normal depth ${f.length(p.normalDepthM)} is above the bank height ${f.length(p.bankDepthM)} of section '${p.section}' (by ${f.length(p.normalDepthM - p.bankDepthM)}).`,
+  overtopping: (
+    f: MessageFormatter,
+    p: { flow: string; normalDepthM: number; bankDepthM: number; section: string; profileMaximum: { depthM: number; stationM: number } | null },
+  ) =>
+    `Over-topping at ${p.flow}: normal depth ${f.length(p.normalDepthM)} is above the bank height ${f.length(p.bankDepthM)} of section '${p.section}' (by ${f.length(p.normalDepthM - p.bankDepthM)}).` +
+    (p.profileMaximum === null
+      ? ''
+      : ` The computed water surface, drawn down toward the control below, is deepest at ${f.station(p.profileMaximum.stationM)} (${f.length(p.profileMaximum.depthM)}) ${STATIONS_FROM_HEAD}; the drawdown is not credited.`),
+
+  /** Over-topping found on the water-surface profile (backwater above normal depth, or a reach with no normal depth). */
+  overtoppingByProfile: (
+    f: MessageFormatter,
+    p: {
+      flow: string;
+      depthM: number;
+      stationM: number;
+      bankDepthM: number;
+      section: string;
+      ranges: readonly { readonly fromStation_m: number; readonly toStation_m: number }[];
+      normalDepthM: number | null;
+      profileClass: string | null;
+    },
+  ) => {
+    const [first] = p.ranges;
+    const where =
+      first === undefined
+        ? ''
+        : ` It stands above the bank from ${f.station(first.fromStation_m)} to ${f.station(first.toStation_m)}${p.ranges.length > 1 ? ` and over ${p.ranges.length - 1} more stretch${p.ranges.length > 2 ? 'es' : ''}` : ''} ${STATIONS_FROM_HEAD}.`;
+    const cause =
+      p.normalDepthM === null
+        ? ' The reach has no normal depth; the profile alone decides.'
+        : p.normalDepthM <= p.bankDepthM
+          ? ` Normal depth ${f.length(p.normalDepthM)} alone would not over-top: backwater raises the water here${p.profileClass === null ? '' : ` (${p.profileClass} curve)`}.`
+          : ` Normal depth ${f.length(p.normalDepthM)} is above the bank too.`;
+    return `Over-topping at ${p.flow}: the computed water surface stands ${f.length(p.depthM)} deep at ${f.station(p.stationM)}, ${f.length(p.depthM - p.bankDepthM)} above the ${f.length(p.bankDepthM)} bank of section '${p.section}'.${where}${cause}`;
+  },
 
   freeboardBelowRequired: (
     f: MessageFormatter,
@@ -53,6 +121,58 @@ export const FINDING_MESSAGES = {
   ) =>
     `Freeboard at ${p.flow} is ${f.length(p.freeboardM)} above normal depth ${f.length(p.normalDepthM)}; the criteria require ${f.length(p.requiredM)}` +
     (p.usbrCoefficientM === null ? '.' : ` (USBR rule F = sqrt(C y) with C = ${f.length(p.usbrCoefficientM)}).`),
+
+  /** Freeboard judged on the water-surface profile where it stands above normal depth. */
+  freeboardBelowRequiredByProfile: (
+    f: MessageFormatter,
+    p: { flow: string; freeboardM: number; requiredM: number; depthM: number; stationM: number; normalDepthM: number | null; usbrCoefficientM: number | null },
+  ) =>
+    `Freeboard at ${p.flow} is ${f.length(p.freeboardM)} at ${f.station(p.stationM)} ${STATIONS_FROM_HEAD}, where the computed water surface stands ${f.length(p.depthM)} deep` +
+    (p.normalDepthM === null ? ' (no normal depth in this reach)' : ` (normal depth ${f.length(p.normalDepthM)}: backwater raises it)`) +
+    `; the criteria require ${f.length(p.requiredM)}` +
+    (p.usbrCoefficientM === null ? '.' : ` (USBR rule F = sqrt(C y) with C = ${f.length(p.usbrCoefficientM)} and y the depth there).`),
+
+  hydraulicJump: (f: MessageFormatter, p: JumpWords & { liningRemark: string }) =>
+    `A hydraulic jump forms at ${p.flow} ${jumpPlace(f, p)} ${STATIONS_FROM_HEAD}, ${jumpRise(f, p)}; it dissipates ${f.length(p.energyLossM)} of head. ` +
+    `Jump types after USBR Engineering Monograph 25.${p.liningRemark}`,
+
+  hydraulicJumpSweptDown: (f: MessageFormatter, p: JumpWords & { origin: string; holding: string; liningRemark: string }) =>
+    `At ${p.flow} the hydraulic jump is swept past reach '${p.holding}', the first reach below the start of the supercritical flow (in reach '${p.origin}') whose slope could hold it: ` +
+    `it forms ${jumpPlace(f, p)} ${STATIONS_FROM_HEAD}, ${jumpRise(f, p)}. Its place moves with the flow and the tailwater: protect the channel wherever it can stand, or add a control that holds it.${p.liningRemark}`,
+
+  hydraulicJumpSweptOutOfChannel: (f: MessageFormatter, p: { flow: string; origin: string; exitDepthM: number; froude: number; velocityMps: number; sequentDepthM: number }) =>
+    `At ${p.flow} the water beyond the outlet is too low to hold the hydraulic jump: the supercritical flow from reach '${p.origin}' leaves the channel ${f.length(p.exitDepthM)} deep ` +
+    `(Froude number ${formatRatio(p.froude)}, ${f.velocity(p.velocityMps)}), where the tailwater would have to stand ${f.length(p.sequentDepthM)} deep to hold the jump. Protect the outfall (an energy dissipator) or raise the tailwater.`,
+
+  hydraulicJumpNotFormed: (f: MessageFormatter, p: { flow: string; origin: string; holding: string; exitDepthM: number; froude: number; velocityMps: number }) =>
+    `At ${p.flow} no hydraulic jump forms in the channel: the supercritical flow from reach '${p.origin}' runs on through reach '${p.holding}', whose slope could hold a jump, ` +
+    `and leaves the outlet ${f.length(p.exitDepthM)} deep (Froude number ${formatRatio(p.froude)}, ${f.velocity(p.velocityMps)}). Protect the outfall, or add a control that holds the jump in the channel.`,
+
+  hydraulicJumpLiningExceeded: (
+    f: MessageFormatter,
+    p: { flow: string; lining: string; reach: string; stationM: number; velocityMps: number; permissibleMps: number | null; shearPa: number; permissiblePa: number | null },
+  ) => {
+    const over: string[] = [];
+    if (p.permissibleMps !== null && p.velocityMps > p.permissibleMps) over.push(`enters at ${f.velocity(p.velocityMps)} where the lining permits ${f.velocity(p.permissibleMps)}`);
+    if (p.permissiblePa !== null && p.shearPa > p.permissiblePa) over.push(`puts a shear of ${f.shear(p.shearPa)} on the bed under the entering flow where the lining permits ${f.shear(p.permissiblePa)}`);
+    return (
+      `The hydraulic jump at ${p.flow} (${f.station(p.stationM)}, reach '${p.reach}') stands on lining '${p.lining}', which does not resist it: the flow ${over.join(' and ')}. ` +
+      'A jump is harsher than uniform flow at the same velocity: line its length with a rigid or heavier lining, or design a stilling basin.'
+    );
+  },
+
+  /** Said with a jump when the lining under it states no limits. */
+  jumpLiningNotChecked: (p: { lining: string }) => ` Lining '${p.lining}' states no permissible velocity or shear, so whether it resists the jump is not checked.`,
+
+  conduitSurcharged: (f: MessageFormatter, p: { flow: string; section: string; reach: string; stationM: number }) =>
+    `At ${p.flow} the computed water surface reaches the crown of conduit '${p.section}' in reach '${p.reach}' near ${f.station(p.stationM)} ${STATIONS_FROM_HEAD}: ` +
+    'the conduit would flow full, so the free-surface profile stops there and over-topping and freeboard in this channel fall back to normal depth at this flow. Check the hydraulic grade line by a pressure-flow method.',
+
+  profileNotComputed: (_f: MessageFormatter, p: { flow: string; detail: string }) =>
+    `The water-surface profile at ${p.flow} was not computed: ${p.detail} Over-topping and freeboard in this channel are judged on normal depth alone at this flow.`,
+
+  /** profileNotComputed's detail for a water-level outlet in a channel without invert elevations. */
+  noElevationDatum: 'the outlet water level is an elevation, but no reach of the channel gives invert elevations, so the depth it sets at the outlet is unknown. Give `inverts` for at least one reach.',
 
   supercriticalFlow: (f: MessageFormatter, p: { flow: string; froude: number; normalDepthM: number; criticalDepthM: number }) =>
     `Supercritical flow at ${p.flow}: Froude number ${formatRatio(p.froude)} (normal depth ${f.length(p.normalDepthM)} is below critical depth ${f.length(p.criticalDepthM)}). ` +

@@ -5,11 +5,17 @@
 import { fromSI, toDisplay, type Dimension, type UnitSystem } from '../units/units.js';
 
 /**
+ * What people see where a value is NaN or infinite (a number too large to compute with, or a result that does not
+ * exist): never the words NaN or Infinity.
+ */
+export const NO_NUMBER_TEXT = '—';
+
+/**
  * Three significant figures, but whole numbers keep all their digits (1234, not 1230), no exponent notation,
  * trailing zeros dropped, thousands grouped with commas from 10,000. (Hand-made: toLocaleString is far slower.)
  */
 export function formatNumber(value: number, significantDigits = 3): string {
-  if (!Number.isFinite(value)) return String(value);
+  if (!Number.isFinite(value)) return NO_NUMBER_TEXT;
   if (value === 0) return '0';
   const magnitude = Math.floor(Math.log10(Math.abs(value)));
   const decimals = Math.min(Math.max(0, significantDigits - 1 - magnitude), 10);
@@ -36,7 +42,7 @@ export function formatInUnit(valueSI: number, unitSymbol: string): string {
 
 /** Froude numbers and other ratios: two decimals. */
 export function formatRatio(value: number): string {
-  return value.toFixed(2);
+  return Number.isFinite(value) ? value.toFixed(2) : NO_NUMBER_TEXT;
 }
 
 /** A percentage of a fraction: 0.2 -> "20 %". */

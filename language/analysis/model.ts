@@ -101,6 +101,120 @@ export interface FlowResult {
   readonly status: CheckStatus;
   /** Findings about this reach and flow (also listed in DesignAnalysis.findings). */
   readonly findings: readonly Finding[];
+  /**
+   * This reach's part of its channel's water-surface profile at this flow (ChannelResult.profiles); null when the
+   * channel's profile could not be computed (the channel's profile entry says why). Over-topping and freeboard are
+   * judged on the deeper of this profile and normal depth. Added by the profile work (optional so hand-made results
+   * stay valid).
+   */
+  readonly profile?: ReachFlowProfile | null;
+}
+
+/**
+ * One reach's share of a channel's water-surface profile at one flow. Stations are distances along the channel
+ * from the upstream end of its first reach, m (the longitudinal view's stations).
+ */
+export interface ReachFlowProfile {
+  /** Stations of the reach's upstream and downstream ends, m. */
+  readonly startStation_m: number;
+  readonly endStation_m: number;
+  /** Deepest water along the reach, m, and where. */
+  readonly maximumDepth_m: number;
+  readonly maximumDepthStation_m: number;
+  /** Least bank height minus depth along the reach, m (negative when over-topped), and where; null for conduits and sections without a bank height. */
+  readonly minimumFreeboard_m: number | null;
+  readonly minimumFreeboardStation_m: number | null;
+  /** Where the water surface stands above the bank (stations interpolated between computed points). */
+  readonly overtoppedRanges: readonly StationRange[];
+  /** Classes of the profile along the reach in flow order, without repeats: 'M1', 'S2', ..., or 'uniform'. */
+  readonly profileClasses: readonly string[];
+}
+
+/** A stretch along a channel, m from its upstream end. */
+export interface StationRange {
+  readonly fromStation_m: number;
+  readonly toStation_m: number;
+}
+
+/** One computed section of a water-surface profile. */
+export interface ProfilePointResult {
+  /** Distance from the channel's upstream end, m. */
+  readonly station_m: number;
+  /** The reach the point belongs to (a junction or a jump appears as two points at one station). */
+  readonly reach: string;
+  readonly depth_m: number;
+  /** Bed elevation, m (relative to the outlet invert when the channel gives no inverts: see `datum`). */
+  readonly invert_m: number;
+  /** Water-surface elevation, m (same datum). */
+  readonly waterSurface_m: number;
+  readonly velocity_mps: number;
+  readonly froudeNumber: number;
+}
+
+/** A stretch of the profile with one class (Chow 1959, Table 9-1), or 'uniform' within 1 % of normal depth. */
+export interface ProfileSegmentResult {
+  readonly reach: string;
+  readonly fromStation_m: number;
+  readonly toStation_m: number;
+  readonly profileClass: 'M1' | 'M2' | 'M3' | 'S1' | 'S2' | 'S3' | 'C1' | 'C3' | 'H2' | 'H3' | 'A2' | 'A3' | 'uniform';
+  /** e.g. "M1 backwater curve (mild slope, above normal depth)". */
+  readonly description: string;
+}
+
+/** A hydraulic jump of a profile. */
+export interface HydraulicJumpResult {
+  /** Where it stands, m from the channel's upstream end. */
+  readonly station_m: number;
+  readonly reach: string;
+  /** Inside a reach, at a junction of two reaches, or beyond the outlet (the tailwater cannot hold it in the channel). */
+  readonly placement: 'within-reach' | 'at-junction' | 'beyond-outlet';
+  /** Supercritical depth entering the jump and subcritical sequent depth leaving it, m. */
+  readonly upstreamDepth_m: number;
+  readonly downstreamDepth_m: number;
+  readonly upstreamFroudeNumber: number;
+  /** Velocity entering the jump, m/s. */
+  readonly upstreamVelocity_mps: number;
+  readonly energyLoss_m: number;
+  /** By upstream Froude number (USBR Engineering Monograph 25; Chow 1959, Sec. 15-3); 'not-a-jump' for Froude number 1 or less. */
+  readonly jumpType: 'undular' | 'weak' | 'oscillating' | 'steady' | 'strong' | 'not-a-jump';
+  /** The reach where the supercritical flow that the jump ends began. */
+  readonly supercriticalFrom: string;
+  /**
+   * True when the jump stands below the first reach that could hold it (the first reach below the start of the
+   * supercritical flow whose slope is not steep at this flow), or beyond the outlet.
+   */
+  readonly sweptOut: boolean;
+  readonly description: string;
+}
+
+/** A remark on a profile; `code` is stable kebab-case (e.g. `critical-depth-at-junction`, `supercritical-at-outlet`). */
+export interface ProfileNoteResult {
+  readonly code: string;
+  /** One sentence, numbers in SI. */
+  readonly message: string;
+  readonly reach: string | null;
+  readonly station_m: number | null;
+}
+
+/**
+ * The steady gradually-varied-flow profile of a channel at one design flow: every computed point from the head of
+ * the channel to its outlet, the profile classes, the jumps and the remarks. Where a flow's discharge changes
+ * along the channel the profile is computed in runs of equal discharge joined at the same water level.
+ */
+export interface ChannelFlowProfile {
+  readonly flow: string;
+  /** False when the profile could not be computed: `failure` says why and the lists are empty. */
+  readonly computed: boolean;
+  readonly failure: { readonly reason: string; readonly message: string; readonly reach: string | null; readonly station_m: number | null } | null;
+  /** 'absolute' when some reach gives invert elevations; otherwise elevations are relative to the outlet invert. */
+  readonly datum: 'absolute' | 'relative-to-outlet';
+  readonly points: readonly ProfilePointResult[];
+  readonly segments: readonly ProfileSegmentResult[];
+  readonly jumps: readonly HydraulicJumpResult[];
+  readonly notes: readonly ProfileNoteResult[];
+  /** Largest energy-equation residual over all steps, m; null when not computed. */
+  readonly maximumEnergyResidual_m: number | null;
+  readonly provenance: Provenance;
 }
 
 export type SectionShapeName = 'rectangle' | 'trapezoid' | 'triangle' | 'parabola' | 'circle';
@@ -178,6 +292,8 @@ export interface ChannelResult {
   /** Outlet condition: free fall (critical depth at the brink), a given water level (m), or normal depth. */
   readonly outlet: { readonly kind: 'free-fall' } | { readonly kind: 'water-level'; readonly elevation_m: number } | { readonly kind: 'normal-depth' } | null;
   readonly reaches: readonly ReachResult[];
+  /** The water-surface profile of each design flow, in design flow order. Added by the profile work (optional so hand-made results stay valid). */
+  readonly profiles?: readonly ChannelFlowProfile[];
 }
 
 export interface DesignAnalysis {

@@ -4,12 +4,14 @@
  */
 import { GRAVITY_MS2, UNIT_WEIGHT_OF_WATER_NM3 } from '../hydraulics/index.js';
 import type { Provenance } from './model.js';
+import { PROFILE_PROVENANCE } from './channel-profiles.js';
 import { DEFAULT_LIMIT_MARGIN, DEFAULT_MINIMUM_VELOCITY, DEFAULT_NEAR_CRITICAL_FROUDE_BAND, USBR_FREEBOARD_RULE } from './criteria-defaults.js';
 
 /** Carried by every report and CLI output. */
 export const CAUTION =
   'Runnel results are for checking designs, not for approving them. They rest on the assumptions listed with them ' +
-  '(steady, uniform flow in long prismatic reaches with the Manning\'s n given). Verify every design against the local ' +
+  '(steady flow; normal depth in each prismatic reach and a gradually varied water-surface profile along each channel, ' +
+  'with the Manning\'s n given). Verify every design against the local ' +
   'drainage criteria and have it reviewed by a licensed engineer before it is built.';
 
 export const REFERENCES = {
@@ -27,7 +29,7 @@ export const REACH_METHOD =
 
 /** Assumptions behind every reach result. */
 export const REACH_ASSUMPTIONS: readonly string[] = [
-  'Steady flow; uniform flow at normal depth in a long prismatic reach (no backwater from the outlet or from the next reach).',
+  'Steady flow; normal depth, velocity, Froude number and shear are those of uniform flow in a long prismatic reach (backwater from the outlet or the next reach is in the channel\'s water-surface profile, not in these).',
   'Manning\'s n is that of the lining and does not vary with depth.',
   `Kinetic-energy coefficient alpha = 1; g = ${GRAVITY_MS2} m/s2.`,
   `Unit weight of water ${UNIT_WEIGHT_OF_WATER_NM3} N/m3 (62.4 lb/ft3); maximum shear gamma y S on the bed at the deepest point, average shear gamma R S.`,
@@ -41,6 +43,17 @@ export const REACH_PROVENANCE: Provenance = {
   references: [REFERENCES.manning, REFERENCES.critical, REFERENCES.slopeClass, REFERENCES.shear],
 };
 
+/** How over-topping and freeboard are judged where a channel carries a water-surface profile. */
+export const OVERTOPPING_BASIS: readonly string[] = [
+  'Over-topping and freeboard are judged on the deeper of normal depth and the computed water surface along the reach: backwater above normal depth governs where it exists; a drawdown below normal depth (toward a free fall or a steeper reach) is not credited, since it holds only while the control below stays as modelled (conservative practice). Where no profile could be computed, normal depth alone is used.',
+];
+
+/** How hydraulic jumps are judged. */
+export const JUMP_BASIS: readonly string[] = [
+  'A jump is expected in the first reach below the start of the supercritical flow whose slope is not steep at that flow; one standing further down, or swept out past the outlet, is a warning.',
+  "A jump is checked against the lining of the reach it stands in (and, at a junction, the reach below): the velocity entering the jump against the lining's permissible velocity, and the shear gamma y Sf under the entering flow (friction slope from Manning's equation) against its permissible shear. A lining with neither limit given is not checked. The turbulence of a jump is harsher than uniform flow at the same velocity: limits from uniform-flow tests do not replace the design of a stilling basin (common practice).",
+];
+
 /** Assumptions of the whole design check, for the report's assumptions section. */
 export const DESIGN_ASSUMPTIONS: readonly string[] = [
   ...REACH_ASSUMPTIONS,
@@ -49,11 +62,14 @@ export const DESIGN_ASSUMPTIONS: readonly string[] = [
   `Self-cleansing minimum velocity by default: ${DEFAULT_MINIMUM_VELOCITY.source}.`,
   `A lining limit exceeded by more than the limit margin (default ${DEFAULT_LIMIT_MARGIN.fraction * 100} %) is an error, otherwise a warning: ${DEFAULT_LIMIT_MARGIN.source}.`,
   'No freeboard is required unless the design sets one; over-topping is always checked where a bank height is given. Freeboard is not required of closed conduits.',
-  `USBR freeboard rule: ${USBR_FREEBOARD_RULE.source}; ${USBR_FREEBOARD_RULE.interpolation}; y is the normal depth.`,
+  `USBR freeboard rule: ${USBR_FREEBOARD_RULE.source}; ${USBR_FREEBOARD_RULE.interpolation}; y is the depth the check is made at.`,
+  ...OVERTOPPING_BASIS,
+  ...JUMP_BASIS,
+  ...PROFILE_PROVENANCE.assumptions.map((item) => `Water-surface profile: ${item}.`),
 ];
 
 export const DESIGN_PROVENANCE: Provenance = {
-  method: `Each reach checked at each design flow in uniform flow. ${REACH_METHOD}`,
+  method: `Each reach checked at each design flow in uniform flow, and each channel's water-surface profile computed at each design flow. ${REACH_METHOD} Profiles: ${PROFILE_PROVENANCE.method}`,
   assumptions: DESIGN_ASSUMPTIONS,
-  references: Object.values(REFERENCES),
+  references: [...Object.values(REFERENCES), ...PROFILE_PROVENANCE.references],
 };

@@ -9,3 +9,4 @@ export * from './uniform-flow.js';
 export * from './critical-flow.js';
 export * from './hydraulic-state.js';
 export * from './boundary-shear.js';
+export * from './profile/index.js';

@@ -21,6 +21,10 @@ export function criteriaMustNotRepeat(criteria: Criteria, accept: ValidationAcce
 
 export function froudeBandMustRunUpward(band: FroudeBandCriterion, accept: ValidationAcceptor): void {
   if (typeof band.low !== 'number' || typeof band.high !== 'number') return;
+  if (!Number.isFinite(band.low) || !Number.isFinite(band.high)) {
+    report(accept, DIAGNOSTICS.numberTooLarge, {}, { node: band, property: Number.isFinite(band.low) ? 'high' : 'low' });
+    return;
+  }
   if (!(band.low >= 0 && band.high > band.low)) report(accept, DIAGNOSTICS.froudeBandInvalid, {}, { node: band });
 }
 
@@ -37,7 +41,8 @@ export function usbrCoefficientShouldBeInPublishedRange(criterion: FreeboardCrit
 }
 
 export function limitMarginMustNotBeNegative(margin: LimitMarginCriterion, accept: ValidationAcceptor): void {
-  if (typeof margin.percent === 'number' && margin.percent < 0) report(accept, DIAGNOSTICS.valueNegative, { what: 'the limit margin' }, { node: margin, property: 'percent' });
+  if (typeof margin.percent === 'number' && !Number.isFinite(margin.percent)) report(accept, DIAGNOSTICS.numberTooLarge, {}, { node: margin, property: 'percent' });
+  else if (typeof margin.percent === 'number' && margin.percent < 0) report(accept, DIAGNOSTICS.valueNegative, { what: 'the limit margin' }, { node: margin, property: 'percent' });
 }
 
 export const criteriaChecks: ValidationChecks<RunnelAstType> = {

@@ -127,6 +127,7 @@ export const DIAGNOSTICS = {
     'error',
     (p) => `Reach '${p.reach}' needs ${p.what}: add ${p.example}.`,
   ),
+  invertSlopeTooLarge: rule<Record<string, never>>('number-too-large', 'error', () => 'These inverts and the reach length give a slope too large to compute with.'),
   slopeAndInverts: rule<Record<string, never>>('slope-and-inverts', 'error', () => 'Give either a slope or inverts, not both.'),
   slopeNotFalling: rule<{ slopeText: string; horizontal: boolean }>(
     'slope-not-falling',

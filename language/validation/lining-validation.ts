@@ -24,6 +24,10 @@ export function liningMustGiveManningN(lining: Lining, accept: ValidationAccepto
 export function manningNShouldBeTypical(roughness: ManningRoughness, accept: ValidationAcceptor): void {
   const value = roughness.value;
   if (typeof value !== 'number') return;
+  if (!Number.isFinite(value)) {
+    report(accept, DIAGNOSTICS.numberTooLarge, {}, { node: roughness, property: 'value' });
+    return;
+  }
   if (!(value > 0)) {
     report(accept, DIAGNOSTICS.valueNotPositive, { what: "Manning's n" }, { node: roughness, property: 'value' });
     return;

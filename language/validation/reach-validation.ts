@@ -57,11 +57,15 @@ export function slopeShouldFall(node: BedSlope | Inverts, accept: ValidationAcce
   } else {
     const upstreamM = quantitySI(node.upstream);
     const downstreamM = quantitySI(node.downstream);
-    if (upstreamM === undefined || downstreamM === undefined || upstreamM > downstreamM) return;
+    if (upstreamM === undefined || downstreamM === undefined) return;
     const lengthM = quantitySI(reachParts(node.$container).length?.value);
     // Without a usable length there is no slope to state; the missing length is reported on its own.
     if (lengthM === undefined || !(lengthM > 0)) return;
     slope = (upstreamM - downstreamM) / lengthM;
+    if (!Number.isFinite(slope)) {
+      report(accept, DIAGNOSTICS.invertSlopeTooLarge, {}, { node });
+      return;
+    }
   }
   if (slope === undefined || slope > 0) return;
   const root = AstUtils.findRootNode(node);

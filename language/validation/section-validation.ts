@@ -46,6 +46,10 @@ export function sectionMustHaveItsDimensions(section: Section, accept: Validatio
 /** `3:1` is three horizontal to one vertical; `3:0` and `-1:1` are not side slopes. */
 export function sideSlopeMustBeValid(slope: SideSlope, accept: ValidationAcceptor): void {
   if (typeof slope.horizontal !== 'number' || typeof slope.vertical !== 'number') return;
+  if (!Number.isFinite(slope.horizontal) || !Number.isFinite(slope.vertical)) {
+    report(accept, DIAGNOSTICS.numberTooLarge, {}, { node: slope, property: Number.isFinite(slope.horizontal) ? 'vertical' : 'horizontal' });
+    return;
+  }
   if (sideSlopeRatio(slope) === undefined) report(accept, DIAGNOSTICS.sideSlopeInvalid, {}, { node: slope });
 }
 

@@ -243,6 +243,12 @@ async function driveEditor(browser, port, workspace) {
   });
 
   await check('shows inlay hints after reaches', async () => {
+    await revealText(page, 'reach crest');
+    const reachLine = page.locator('.monaco-editor .view-line', { hasText: 'reach crest' }).first();
+    await reachLine.waitFor();
+    await page.waitForTimeout(8000);
+    console.log(await reachLine.evaluate((line) => line.innerHTML));
+    await page.screenshot({ path: join(OUTPUT, 'inlay-debug.png') });
     await page.locator('.monaco-editor .view-lines [class*="dyn-rule"], .monaco-editor .view-lines .inlay-hint').first().waitFor();
     await page.screenshot({ path: join(OUTPUT, 'inlay-hints.png') });
   });
@@ -298,10 +304,21 @@ async function driveEditor(browser, port, workspace) {
     await runQuickOpen(page, DESIGN_FILE);
     await runCommand(page, 'Runnel: Compare with Last Commit');
     await page.locator('.tab[aria-label*="compared with the last commit"]').first().waitFor();
+    // The Markdown preview is a webview too: wait until it shows the comparison's text.
+    await waitForFrame(page, (frame) => frame.locator('.markdown-body :is(h1, h2, h3, p)').first().isVisible().catch(() => false));
     await page.screenshot({ path: join(OUTPUT, 'compare-with-last-commit.png') });
   });
 
   await page.close();
+}
+
+/** Scrolls the editor to the first occurrence of `text` (the find widget reveals it), leaving it selected. */
+async function revealText(page, text) {
+  await page.locator('.monaco-editor .view-lines').first().click();
+  await page.keyboard.press('Control+F');
+  await page.keyboard.type(text);
+  await page.keyboard.press('Enter');
+  await page.keyboard.press('Escape');
 }
 
 /** The frame of the report panel: the one whose document has a report heading. */

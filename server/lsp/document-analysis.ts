@@ -10,7 +10,7 @@ import { AstUtils, DocumentState, type AstNode, type LangiumDocument } from 'lan
 import type { LangiumSharedServices } from 'langium/lsp';
 import { isReach, type Reach } from '../../language/generated/ast.js';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
-import type { DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
+import type { ChannelResult, DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
 import type { RunnelEditorSettings } from './runnel-settings.js';
 
@@ -50,6 +50,7 @@ export function displaySystemFor(analysis: DesignAnalysis, settings: RunnelEdito
 
 interface AnalysisIndex {
   readonly reachByStart: ReadonlyMap<string, ReachResult>;
+  readonly placeOfReach: ReadonlyMap<ReachResult, { readonly channel: ChannelResult; readonly index: number }>;
 }
 
 const indexes = new WeakMap<DesignAnalysis, AnalysisIndex>();
@@ -62,10 +63,14 @@ function indexOf(analysis: DesignAnalysis): AnalysisIndex {
   let index = indexes.get(analysis);
   if (index === undefined) {
     const reachByStart = new Map<string, ReachResult>();
+    const placeOfReach = new Map<ReachResult, { channel: ChannelResult; index: number }>();
     for (const channel of analysis.channels) {
-      for (const reach of channel.reaches) reachByStart.set(positionKey(reach.location.range.start), reach);
+      channel.reaches.forEach((reach, reachIndex) => {
+        reachByStart.set(positionKey(reach.location.range.start), reach);
+        placeOfReach.set(reach, { channel, index: reachIndex });
+      });
     }
-    index = { reachByStart };
+    index = { reachByStart, placeOfReach };
     indexes.set(analysis, index);
   }
   return index;
@@ -76,6 +81,11 @@ export function reachResultOf(analysis: DesignAnalysis, reach: Reach): ReachResu
   // ReachResult.location is the whole reach block, as reach.$cstNode.
   const start = reach.$cstNode?.range.start;
   return start === undefined ? undefined : indexOf(analysis).reachByStart.get(positionKey(start));
+}
+
+/** The channel of an analysed reach and the reach's position in it (upstream first). */
+export function placeOfReach(analysis: DesignAnalysis, reach: ReachResult): { readonly channel: ChannelResult; readonly index: number } | undefined {
+  return indexOf(analysis).placeOfReach.get(reach);
 }
 
 /** The reach a node lies in, if any. */

@@ -4,7 +4,7 @@
  * an empty result. Cancellation is not an error: it passes through, and Langium answers "request cancelled".
  */
 import { isOperationCancelled } from 'langium';
-import type { Connection } from 'vscode-languageserver';
+import { ResponseError, type Connection } from 'vscode-languageserver';
 
 /** Where the server writes what went wrong. */
 export interface ServerLog {
@@ -37,11 +37,12 @@ export function describeFault(error: unknown): string {
 
 /**
  * Runs `work`; on an internal error logs it with `what` and returns `empty`. Works for plain and async results.
- * Cancellation is rethrown so the request is answered as cancelled.
+ * Cancellation is rethrown so the request is answered as cancelled, and so is a ResponseError: that is a deliberate
+ * answer for the user (e.g. "not a valid name"), not a fault.
  */
 export function contained<T>(log: ServerLog, what: string, empty: T, work: () => T | Promise<T>): T | Promise<T> {
   const fail = (error: unknown): T => {
-    if (isOperationCancelled(error)) throw error;
+    if (isOperationCancelled(error) || error instanceof ResponseError) throw error;
     log.error(`Runnel: ${what} failed; answering with an empty result. ${describeFault(error)}`);
     return empty;
   };

@@ -119,7 +119,7 @@ function formatLayout(document: LangiumDocument, lexer: Lexer): Layout | undefin
   const eol = text.includes('\r\n') ? '\r\n' : '\n';
   const lineOf = lineCounter(text);
   const itemStarts = itemStartOffsets(root);
-  const alignedGaps = flowTableAlignment(root, tokens, text, lineOf);
+  const alignedGaps = flowTableAlignment(root, tokens, lineOf);
 
   // Blocks: a `{ }` pair written on one line stays on one line.
   const inlineBlockAt = new Map<number, boolean>();
@@ -228,7 +228,7 @@ function firstTokenOffset(node: AstNode): number | undefined {
  * Column alignment of multi-line flow tables: names padded to one width, `= discharge` to another, so the
  * discharges and descriptions line up. Tables with comments inside a flow are left unaligned.
  */
-function flowTableAlignment(root: RunnelFile, tokens: readonly Token[], text: string, lineOf: (offset: number) => number): Map<number, string> {
+function flowTableAlignment(root: RunnelFile, tokens: readonly Token[], lineOf: (offset: number) => number): Map<number, string> {
   const gaps = new Map<number, string>();
   const indexByStart = new Map(tokens.map((token, index) => [token.start, index]));
   for (const table of (root.members ?? []).filter(isFlowTable)) {
@@ -249,7 +249,6 @@ function flowTableAlignment(root: RunnelFile, tokens: readonly Token[], text: st
         else gaps.set(row.descriptionIndex, ` ${namePad}${dischargeWidth > 0 ? ' '.repeat(dischargeWidth + 1) : ''}`);
       }
     }
-    void text;
   }
   return gaps;
 }

@@ -7,7 +7,7 @@
  * reaches and their status. On a number with a unit: the value in the other unit system.
  * Everything comes from the document version's one analysis, in the display units the design or setting asks for.
  */
-import { AstUtils, CstUtils, GrammarUtils, type AstNode, type LangiumDocument, type LangiumDocuments, type References } from 'langium';
+import { AstUtils, CstUtils, DocumentState, GrammarUtils, type AstNode, type LangiumDocument, type LangiumDocuments, type References } from 'langium';
 import type { HoverProvider, LangiumServices } from 'langium/lsp';
 import type { Hover, HoverParams } from 'vscode-languageserver';
 import {
@@ -118,9 +118,10 @@ export class RunnelHoverProvider implements HoverProvider {
       if (reach === undefined) continue;
       total++;
       if (rows.length >= LISTED_REACHES) continue;
-      const result = reachResultOf(this.analyses.of(document), reach);
+      // A file the workspace build has not linked yet is not analysed from here (it would link it out of turn).
+      const result = document.state >= DocumentState.Linked ? reachResultOf(this.analyses.of(document), reach) : undefined;
       const file = document.uri.toString() === AstUtils.getDocument(definition).uri.toString() ? '' : ` (${escapeMarkdownInline(fileName(document.uri.toString()))})`;
-      rows.push(`- reach \`${reach.name ?? ''}\`${file}: ${result === undefined ? 'not analysed (incomplete)' : reachStatusText(result, system)}`);
+      rows.push(`- reach \`${reach.name ?? ''}\`${file}: ${result === undefined ? 'not analysed (incomplete, or not built yet)' : reachStatusText(result, system)}`);
     }
     if (total === 0) return 'Not used by any reach in the open workspace.';
     return [`**Used by ${total} reach${total === 1 ? '' : 'es'}**`, ...rows, ...(total > rows.length ? [`- … and ${total - rows.length} more`] : [])].join('\n');

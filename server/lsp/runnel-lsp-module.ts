@@ -40,7 +40,6 @@ import {
   DefaultDocumentHighlightProvider,
   DefaultFoldingRangeProvider,
   DefaultReferencesProvider,
-  DefaultRenameProvider,
   type DefaultSharedModuleContext,
   type LangiumServices,
   type LangiumSharedServices,
@@ -60,6 +59,7 @@ import { containProvider, createServerLog, guardProcess, type ServerLog } from '
 import { RunnelFormatter } from './formatter.js';
 import { RunnelHoverProvider } from './hover-provider.js';
 import { RunnelInlayHintProvider } from './inlay-hint-provider.js';
+import { RunnelRenameProvider } from './rename-provider.js';
 import { RunnelSettings } from './runnel-settings.js';
 
 /** Services the server adds to Langium's. */
@@ -105,7 +105,7 @@ export const RunnelLspModule: Module<RunnelLspServices, PartialLangiumServices &
     DefinitionProvider: (services) => containProvider(new DefaultDefinitionProvider(services), services.runnel.Log, 'go to definition', EMPTY.definition),
     ReferencesProvider: (services) => containProvider(new DefaultReferencesProvider(services), services.runnel.Log, 'find references', EMPTY.references),
     DocumentHighlightProvider: (services) => containProvider(new DefaultDocumentHighlightProvider(services), services.runnel.Log, 'highlight', EMPTY.highlight),
-    RenameProvider: (services) => containProvider(new DefaultRenameProvider(services), services.runnel.Log, 'rename', EMPTY.rename),
+    RenameProvider: (services) => containProvider(new RunnelRenameProvider(services), services.runnel.Log, 'rename', EMPTY.rename),
   },
 };
 

@@ -85,6 +85,11 @@ export class DocumentHarness {
     if (original !== undefined) await this.workspace.set(name, original);
   }
 
+  /** Replaces (or adds) a file without checking it (a library a checked design uses). */
+  async put(name: string, text: string): Promise<void> {
+    await this.workspace.set(name, text);
+  }
+
   /** Replaces (or adds) `name` with `text` and runs every check on it; see the module comment. */
   async check(name: string, text: string, options: CheckOptions = {}): Promise<CheckOutcome> {
     const problems: string[] = [];
@@ -283,6 +288,7 @@ export function nonFiniteNumbers(value: unknown, path = 'analysis', found: strin
 
 /** Up to `count` positions inside tokens, spread evenly over the text (the middle of every k-th word). */
 function hoverPositions(text: string, lines: TextDocument, count: number): Position[] {
+  if (count <= 0) return [];
   const starts: number[] = [];
   for (const match of text.matchAll(/[A-Za-z0-9_.%‰-]+/g)) starts.push(match.index + Math.floor(match[0].length / 2));
   const step = Math.max(1, Math.ceil(starts.length / count));

@@ -7,7 +7,7 @@
  * from the closed form of Manning's equation (REFERENCES.md N8, derived), and unit conversions from the exact
  * definition 1 ft = 0.3048 m (NIST SP 811, App. B).
  */
-import { execFileSync } from 'node:child_process';
+import { execFileSync, fork } from 'node:child_process';
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -26,9 +26,11 @@ import type {
   WorkspaceEdit,
 } from 'vscode-languageserver-protocol';
 import { TextDocument } from 'vscode-languageserver-textdocument';
+import { createProtocolConnection, IPCMessageReader, IPCMessageWriter } from 'vscode-languageserver-protocol/node';
 import { COMPARE_WITH_LAST_COMMIT_REQUEST, RENDER_REPORT_REQUEST, RESULTS_MARKDOWN_REQUEST, type CompareWithLastCommitResult, type RenderReportResult, type ResultsMarkdownResult } from '../../server/protocol.js';
 import { delay, pathToUri, TestLanguageClient } from './lsp-client.js';
 import { SAMPLES_FOLDER } from './lsp-workspace.js';
+import { serverBundle } from './server-bundle.js';
 
 const FOOT_M = 0.3048;
 const CFS_M3S = FOOT_M ** 3;
@@ -90,6 +92,23 @@ describe('initialize', () => {
     for (let attempt = 0; attempt < 50 && !client.serverRequests.some((request) => request.method === 'workspace/configuration'); attempt++) await delay(50);
     const asked = client.serverRequests.find((request) => request.method === 'workspace/configuration')?.params as { items: { section?: string }[] } | undefined;
     expect(asked?.items.map((item) => item.section)).toContain('runnel');
+  });
+});
+
+describe('transport', () => {
+  it('also speaks over Node IPC, as the VS Code extension starts it', async () => {
+    const child = fork(await serverBundle(), ['--node-ipc'], { stdio: ['ignore', 'ignore', 'pipe', 'ipc'] });
+    const connection = createProtocolConnection(new IPCMessageReader(child), new IPCMessageWriter(child));
+    connection.listen();
+    try {
+      const result = (await connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: {} })) as InitializeResult;
+      expect(result.capabilities.hoverProvider).toBe(true);
+      await connection.sendRequest('shutdown');
+      await connection.sendNotification('exit');
+    } finally {
+      connection.dispose();
+      if (child.exitCode === null) child.kill();
+    }
   });
 });
 
@@ -315,6 +334,14 @@ describe('formatting, symbols, folding, definition, references, rename', () => {
     expect(Object.keys(changes).sort()).toEqual(expect.arrayContaining([uri, uriOf('linings.runnel')]));
     expect(changes[uriOf('linings.runnel')]?.map((change) => change.newText)).toEqual(['grass-tall']);
     expect(changes[uri]).toHaveLength(2);
+
+    const invalid = await client
+      .request('textDocument/rename', { textDocument: { uri }, position: positionOf(text, 'lining grass-medium', 9), newName: 'grass medium' })
+      .then(
+        () => 'answered',
+        (error: Error) => error.message,
+      );
+    expect(invalid).toMatch(/'grass medium' is not a valid name/);
   });
 });
 

@@ -4,7 +4,7 @@
  * always drive what `npm run build` would ship. RUNNEL_SERVER_BUNDLE=path uses an existing bundle instead
  * (e.g. dist/server.cjs in CI after `npm run build`).
  */
-import { mkdtempSync } from 'node:fs';
+import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { build } from 'esbuild';
@@ -21,7 +21,18 @@ export function serverBundle(): Promise<string> {
 async function buildBundle(): Promise<string> {
   const given = process.env['RUNNEL_SERVER_BUNDLE'];
   if (given !== undefined && given !== '') return given;
-  const outfile = join(mkdtempSync(join(tmpdir(), 'runnel-server-')), 'server.cjs');
+  // One folder for every test process's bundle; bundles older than an hour are left-overs of earlier runs.
+  const folder = join(tmpdir(), 'runnel-server-bundles');
+  mkdirSync(folder, { recursive: true });
+  for (const file of readdirSync(folder)) {
+    const path = join(folder, file);
+    if (Date.now() - statSync(path).mtimeMs > 3_600_000) rmSync(path, { force: true });
+  }
+  const outfile = join(folder, `server-${process.pid}.cjs`);
+  process.once('exit', () => {
+    rmSync(outfile, { force: true });
+    rmSync(`${outfile}.map`, { force: true });
+  });
   await build({
     entryPoints: [join(REPOSITORY_ROOT, 'server', 'language-server.ts')],
     outfile,

@@ -31,8 +31,8 @@ export const DEFAULT_MAXIMUM_DEPTH_CHANGE_RATIO = 0.02;
 
 /**
  * Each step's energy equation is iterated until |residual| <= this, m: the head at the new section, minus the
- * head at the known one, minus (plus) the friction loss. One micrometre is far below any depth that matters
- * and far above the rounding of heads of a few hundred metres.
+ * head at the known one, minus (plus) the friction loss. A nanometre is far below any depth that matters and
+ * still well above the rounding of heads of a few hundred metres (about 1e-13 m).
  */
 export const STEP_ENERGY_TOLERANCE_M = 1e-9;
 

@@ -1,0 +1,443 @@
+/**
+ * The water-surface profile of each channel at each design flow, as the analysis model carries it: the engine's
+ * standard-step profile (language/hydraulics/profile) fed with the channel's reaches, bed and outlet, computed
+ * once per channel and flow inside the cached analysis. Hover, hints, the report and the JSON output read the
+ * result from the model; the findings judge over-topping, freeboard and jumps on it.
+ *
+ * A flow whose discharge changes along the channel (an inflow, a turnout) is computed in runs of reaches of equal
+ * discharge: from the outlet upstream, each run ends at the water level the run below starts with (water-surface
+ * continuity at the change, the momentum of the inflow neglected); then, from the head down, a run that receives
+ * supercritical flow from the run above is computed again with that depth entering it. One pass each way.
+ */
+import {
+  computeChannelProfile,
+  profileProvenance,
+  type ChannelProfile,
+  type ChannelProfileResult,
+  type HydraulicJump,
+  type OutletControl,
+  type ProfileNote,
+  type ProfilePoint,
+  type ProfileReachInput,
+  type ReachProfileSummary,
+  type SectionGeometry,
+  type StepControl,
+} from '../hydraulics/index.js';
+import type {
+  Provenance,
+  ChannelFlowProfile,
+  ChannelResult,
+  HydraulicJumpResult,
+  ProfileNoteResult,
+  ProfilePointResult,
+  ProfileSegmentResult,
+  ReachFlowProfile,
+} from './model.js';
+import { channelBed } from './channel-bed.js';
+
+/**
+ * Step control of the analysis' profiles. The engine's defaults (20 m steps, 10 steps per reach, 2 % depth change)
+ * are finer than a design check needs and would cost tens of milliseconds on a design of hundreds of reaches.
+ * These settings keep every computed depth, and each reach's deepest depth, within 1 % of the same profile
+ * computed with steps ten times finer (checked over the samples and a 500-reach design in
+ * test/analysis/channel-profiles.test.ts): the depth bound governs where the water surface curves; the length
+ * bound only matters where the depth hardly changes (near normal depth).
+ */
+export const ANALYSIS_PROFILE_STEP_CONTROL: Required<StepControl> = {
+  maximumStepLengthM: 100,
+  minimumStepsPerReach: 2,
+  maximumDepthChangeRatio: 0.05,
+};
+
+/** What the analysis adds to the engine's statement of method when it builds a channel's profiles. */
+export const PROFILE_ANALYSIS_ASSUMPTIONS: readonly string[] = [
+  'kinetic-energy coefficient alpha = 1 and no loss at junctions of reaches (loss coefficient 0)',
+  'water enters the head of each channel from a pool or an inlet structure: critical depth there when its first reach is steep, otherwise the depth the profile from downstream sets',
+  "where a flow's discharge changes along a channel, the runs of equal discharge are joined at the same water level (water-surface continuity; the momentum of the inflow or outflow is neglected); a supercritical flow leaving a run enters the next at the same depth",
+  'bed elevations from the inverts given; a reach given only a slope continues the bed of the reach below it (or of the reach above it, below the last invert given); with no invert at all, elevations are relative to the outlet invert',
+];
+
+/** How every channel profile of the analysis is computed: the engine's method with the analysis' step control. */
+export const PROFILE_PROVENANCE: Provenance = (() => {
+  const engine = profileProvenance(1, 0, ANALYSIS_PROFILE_STEP_CONTROL);
+  return { method: engine.method, assumptions: [...engine.assumptions, ...PROFILE_ANALYSIS_ASSUMPTIONS], references: engine.references };
+})();
+
+/** What the profile needs to know of one analysed reach. */
+export interface ProfileReachPlan {
+  readonly name: string;
+  readonly section: SectionGeometry;
+  readonly manningN: number;
+  readonly slope: number;
+  readonly lengthM: number;
+  /** Bank height of an open section, m; null for conduits and open sections without one. */
+  readonly bankHeightM: number | null;
+  readonly upstreamInvertM: number | null;
+  readonly downstreamInvertM: number | null;
+  /** Discharge of each flow in this reach, m3/s, by flow name. */
+  readonly dischargesM3s: ReadonlyMap<string, number>;
+}
+
+export interface ChannelPlan {
+  /** Analysed reaches in flow order. */
+  readonly reaches: readonly ProfileReachPlan[];
+  readonly outlet: ChannelResult['outlet'];
+  /** Why the channel cannot carry a profile although validation says so already (incomplete reaches, no outlet); null if none. */
+  readonly silentObstacle: string | null;
+}
+
+/** A jump with its reaches as indices of the channel's analysed reaches. */
+export interface PlacedJump {
+  readonly result: HydraulicJumpResult;
+  readonly reachIndex: number;
+  readonly originReachIndex: number;
+  /** The first reach at or below the origin whose slope is not steep at this flow; undefined if none. */
+  readonly holdingReachIndex: number | undefined;
+}
+
+/** Supercritical flow leaving the outlet without a jump, though it passed a reach that could have held one. */
+export interface SweptOutExit {
+  readonly originReachIndex: number;
+  readonly holdingReachIndex: number;
+  readonly depthM: number;
+  readonly froudeNumber: number;
+  readonly velocityMps: number;
+  readonly stationM: number;
+}
+
+export interface ProfileFailure {
+  /** 'reported': a finding should say it; 'silent': validation already reports the cause. */
+  readonly kind: 'reported' | 'silent';
+  readonly reason: string;
+  readonly message: string;
+  readonly reachIndex: number | null;
+  readonly stationM: number | null;
+}
+
+/** One channel and flow: the model's profile, each reach's share and what the findings need. */
+export interface ComputedFlowProfile {
+  readonly model: ChannelFlowProfile;
+  /** Indexed like ChannelPlan.reaches; null where no profile exists. */
+  readonly reachProfiles: readonly (ReachFlowProfile | null)[];
+  readonly jumps: readonly PlacedJump[];
+  readonly sweptOutExit: SweptOutExit | null;
+  readonly failure: ProfileFailure | null;
+}
+
+/** The profile of every flow of a channel, in the order of `flowNames`. */
+export function computeChannelProfiles(plan: ChannelPlan, flowNames: readonly string[]): ComputedFlowProfile[] {
+  const bed = channelBed(plan.reaches.map((reach) => ({ slope: reach.slope, length_m: reach.lengthM, upstreamInvert_m: reach.upstreamInvertM, downstreamInvert_m: reach.downstreamInvertM })));
+  const engineReaches: ProfileReachInput[] = plan.reaches.map((reach, index) => ({
+    name: reach.name,
+    section: reach.section,
+    manningN: reach.manningN,
+    bedSlope: reach.slope,
+    lengthM: reach.lengthM,
+    downstreamInvertElevationM: bed.downstreamInvertsM[index] ?? 0,
+    ...(reach.bankHeightM === null ? {} : { bankHeightM: reach.bankHeightM }),
+  }));
+  return flowNames
+    .filter((flowName) => plan.reaches.some((reach) => reach.dischargesM3s.has(flowName)))
+    .map((flowName) => computeFlowProfile(plan, engineReaches, bed.datum, flowName));
+}
+
+/** The engine input of a channel at one discharge, as the analysis builds it (tests compare with it). */
+export function engineOutlet(outlet: NonNullable<ChannelResult['outlet']>): OutletControl {
+  switch (outlet.kind) {
+    case 'free-fall':
+      return { kind: 'free-fall' };
+    case 'normal-depth':
+      return { kind: 'normal-depth' };
+    case 'water-level':
+      return { kind: 'water-level', elevationM: outlet.elevation_m };
+  }
+}
+
+// ------------------------------------------------------------------------------------------------ one flow
+
+interface Run {
+  /** Index of the run's first reach in the channel. */
+  readonly firstReachIndex: number;
+  readonly reaches: ProfileReachInput[];
+  readonly dischargeM3s: number;
+  readonly startStationM: number;
+  result: ChannelProfile | undefined;
+  /** True when the run was computed with the supercritical depth leaving the run above as its inlet. */
+  carriedIn: boolean;
+}
+
+function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], datum: ChannelFlowProfile['datum'], flowName: string): ComputedFlowProfile {
+  const fail = (failure: ProfileFailure): ComputedFlowProfile => ({
+    model: {
+      flow: flowName,
+      computed: false,
+      failure: {
+        reason: failure.reason,
+        message: failure.message,
+        reach: failure.reachIndex === null ? null : (plan.reaches[failure.reachIndex]?.name ?? null),
+        station_m: failure.stationM,
+      },
+      datum,
+      points: [],
+      segments: [],
+      jumps: [],
+      notes: [],
+      maximumEnergyResidual_m: null,
+      provenance: PROFILE_PROVENANCE,
+    },
+    reachProfiles: plan.reaches.map(() => null),
+    jumps: [],
+    sweptOutExit: null,
+    failure,
+  });
+  if (plan.silentObstacle !== null) return fail({ kind: 'silent', reason: 'incomplete-channel', message: plan.silentObstacle, reachIndex: null, stationM: null });
+  const outlet = plan.outlet;
+  if (outlet === null) return fail({ kind: 'silent', reason: 'no-outlet', message: 'The channel has no outlet condition.', reachIndex: null, stationM: null });
+  const missing = plan.reaches.findIndex((reach) => !reach.dischargesM3s.has(flowName));
+  if (missing >= 0) {
+    return fail({ kind: 'silent', reason: 'no-discharge', message: `Flow ${flowName} has no discharge in reach '${plan.reaches[missing]?.name ?? ''}'.`, reachIndex: missing, stationM: null });
+  }
+  if (outlet.kind === 'water-level' && datum === 'relative-to-outlet') {
+    return fail({
+      kind: 'reported',
+      reason: 'no-elevation-datum',
+      message: 'The outlet water level is an elevation, but no reach of the channel gives invert elevations, so the depth it sets at the outlet is unknown.',
+      reachIndex: plan.reaches.length - 1,
+      stationM: null,
+    });
+  }
+
+  const runs = splitIntoRuns(plan, engineReaches, flowName);
+  const channelOutlet = engineOutlet(outlet);
+  const outletOf = (runIndex: number): OutletControl => {
+    if (runIndex === runs.length - 1) return channelOutlet;
+    const below = (runs[runIndex + 1] as Run).result as ChannelProfile;
+    return { kind: 'water-level', elevationM: (below.points[0] as ProfilePoint).waterSurfaceElevationM };
+  };
+  const runFailure = (run: Run, result: ChannelProfileResult & { converged: false }): ComputedFlowProfile =>
+    fail({
+      kind: 'reported',
+      reason: result.reason,
+      message: result.message,
+      reachIndex: result.reachIndex === null ? null : run.firstReachIndex + result.reachIndex,
+      stationM: result.stationM === null ? null : run.startStationM + result.stationM,
+    });
+
+  // From the outlet upstream: each run ends at the level the run below starts with.
+  for (let index = runs.length - 1; index >= 0; index--) {
+    const run = runs[index] as Run;
+    const result = computeChannelProfile({ reaches: run.reaches, dischargeM3s: run.dischargeM3s, outlet: outletOf(index), stepControl: ANALYSIS_PROFILE_STEP_CONTROL });
+    if (!result.converged) return runFailure(run, result);
+    run.result = result;
+  }
+  // From the head down: supercritical flow leaving a run enters the next one.
+  for (let index = 1; index < runs.length; index++) {
+    const above = (runs[index - 1] as Run).result as ChannelProfile;
+    const exit = above.points[above.points.length - 1] as ProfilePoint;
+    if (exit.regime !== 'supercritical') continue;
+    const run = runs[index] as Run;
+    const result = computeChannelProfile({
+      reaches: run.reaches,
+      dischargeM3s: run.dischargeM3s,
+      outlet: outletOf(index),
+      inlet: { kind: 'depth', depthM: exit.depthM },
+      stepControl: ANALYSIS_PROFILE_STEP_CONTROL,
+    });
+    if (!result.converged) return runFailure(run, result);
+    run.result = result;
+    run.carriedIn = true;
+  }
+  return assemble(plan, runs, datum, flowName);
+}
+
+/** Consecutive reaches with the same discharge of the flow. */
+function splitIntoRuns(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], flowName: string): Run[] {
+  const runs: Run[] = [];
+  let stationM = 0;
+  plan.reaches.forEach((reach, index) => {
+    const dischargeM3s = reach.dischargesM3s.get(flowName) as number;
+    const current = runs[runs.length - 1];
+    if (current !== undefined && current.dischargeM3s === dischargeM3s) {
+      current.reaches.push(engineReaches[index] as ProfileReachInput);
+    } else {
+      runs.push({ firstReachIndex: index, reaches: [engineReaches[index] as ProfileReachInput], dischargeM3s, startStationM: stationM, result: undefined, carriedIn: false });
+    }
+    stationM += reach.lengthM;
+  });
+  return runs;
+}
+
+/** Notes that describe a run's own ends, which are not the channel's ends when the run is not the first or last. */
+const OUTLET_NOTES: ReadonlySet<ProfileNote['code']> = new Set(['tailwater-below-critical-depth', 'jump-swept-out-of-channel', 'supercritical-at-outlet', 'outlet-normal-depth-supercritical']);
+const INLET_NOTES: ReadonlySet<ProfileNote['code']> = new Set(['inlet-depth-not-supercritical', 'inlet-drowned']);
+
+function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowProfile['datum'], flowName: string): ComputedFlowProfile {
+  const reachName = (index: number): string => plan.reaches[index]?.name ?? '';
+  const points: ProfilePointResult[] = [];
+  const regimes: ProfilePoint['regime'][] = [];
+  const pointReaches: number[] = [];
+  const segments: ProfileSegmentResult[] = [];
+  const notes: ProfileNoteResult[] = [];
+  const summaries: ReachProfileSummary[] = [];
+  const rawJumps: { jump: HydraulicJump; reachIndex: number; originReachIndex: number; placement: HydraulicJump['placement'] }[] = [];
+  let maximumResidualM = 0;
+
+  runs.forEach((run, runIndex) => {
+    const result = run.result as ChannelProfile;
+    const offsetM = run.startStationM;
+    const reachOffset = run.firstReachIndex;
+    const isLast = runIndex === runs.length - 1;
+    const next = runs[runIndex + 1];
+    // The origin of supercritical flow carried in from the run above: where it began there.
+    const carriedOriginIndex = run.carriedIn ? supercriticalOriginReachIndex(regimes, pointReaches, regimes.length - 1) : undefined;
+    for (const point of result.points) {
+      points.push({
+        station_m: point.stationM + offsetM,
+        reach: reachName(point.reachIndex + reachOffset),
+        depth_m: point.depthM,
+        invert_m: point.invertElevationM,
+        waterSurface_m: point.waterSurfaceElevationM,
+        velocity_mps: point.velocityMs,
+        froudeNumber: point.froudeNumber,
+      });
+      regimes.push(point.regime);
+      pointReaches.push(point.reachIndex + reachOffset);
+    }
+    for (const segment of result.segments) {
+      segments.push({
+        reach: reachName(segment.reachIndex + reachOffset),
+        fromStation_m: segment.fromStationM + offsetM,
+        toStation_m: segment.toStationM + offsetM,
+        profileClass: segment.profileClass,
+        description: segment.description,
+      });
+    }
+    for (const summary of result.reaches) summaries.push(summary);
+    // A jump the run put beyond its outlet stands at the change of discharge unless the run below carries the flow on.
+    const carriedOn = next !== undefined && next.carriedIn && !(next.result?.notes ?? []).some((note) => INLET_NOTES.has(note.code));
+    for (const jump of result.jumps) {
+      let placement = jump.placement;
+      if (placement === 'beyond-outlet' && !isLast) {
+        if (carriedOn) continue;
+        placement = 'at-junction';
+      }
+      const local = jump.supercriticalFromReachIndex;
+      const originReachIndex = run.carriedIn && local === 0 && carriedOriginIndex !== undefined ? carriedOriginIndex : local + reachOffset;
+      rawJumps.push({ jump, reachIndex: jump.reachIndex + reachOffset, originReachIndex, placement });
+    }
+    for (const note of result.notes) {
+      if (!isLast && OUTLET_NOTES.has(note.code)) {
+        if (note.code === 'tailwater-below-critical-depth') {
+          const lastReach = run.reaches[run.reaches.length - 1] as ProfileReachInput;
+          notes.push({
+            code: 'critical-depth-at-junction',
+            message: `Where the discharge changes below reach "${lastReach.name}", the water below stands lower than critical depth above: the flow passes critical depth at the end of reach "${lastReach.name}".`,
+            reach: lastReach.name,
+            station_m: note.stationM === null ? null : note.stationM + offsetM,
+          });
+        }
+        continue;
+      }
+      if (runIndex > 0 && run.carriedIn && INLET_NOTES.has(note.code)) continue;
+      notes.push({
+        code: note.code,
+        message: note.message,
+        reach: note.reachIndex === null ? null : reachName(note.reachIndex + reachOffset),
+        station_m: note.stationM === null ? null : note.stationM + offsetM,
+      });
+    }
+    maximumResidualM = Math.max(maximumResidualM, result.maximumEnergyResidualM);
+  });
+
+  // Shift each run's summaries to channel stations (summaries are in run order, one per reach).
+  const reachProfiles: ReachFlowProfile[] = summaries.map((summary, index) => {
+    const run = runs.find((candidate) => index >= candidate.firstReachIndex && index < candidate.firstReachIndex + candidate.reaches.length) as Run;
+    const offsetM = run.startStationM;
+    return {
+      startStation_m: summary.startStationM + offsetM,
+      endStation_m: summary.endStationM + offsetM,
+      maximumDepth_m: summary.maximumDepthM,
+      maximumDepthStation_m: summary.maximumDepthStationM + offsetM,
+      minimumFreeboard_m: summary.minimumFreeboardM,
+      minimumFreeboardStation_m: summary.minimumFreeboardStationM === null ? null : summary.minimumFreeboardStationM + offsetM,
+      overtoppedRanges: summary.overtoppedRanges.map((range) => ({ fromStation_m: range.fromStationM + offsetM, toStation_m: range.toStationM + offsetM })),
+      profileClasses: [...summary.profileClasses],
+    };
+  });
+  const holdsJump = summaries.map((summary) => summary.slopeClass === 'mild' || summary.slopeClass === 'horizontal' || summary.slopeClass === 'adverse');
+  const holdingReachAtOrBelow = (originIndex: number): number | undefined => {
+    for (let index = Math.max(0, originIndex); index < holdsJump.length; index++) if (holdsJump[index]) return index;
+    return undefined;
+  };
+
+  const jumps: PlacedJump[] = rawJumps.map(({ jump, reachIndex, originReachIndex, placement }) => {
+    const holdingReachIndex = holdingReachAtOrBelow(originReachIndex);
+    const sweptOut = placement === 'beyond-outlet' || (holdingReachIndex !== undefined && reachIndex > holdingReachIndex);
+    const section = plan.reaches[reachIndex]?.section;
+    const dischargeM3s = plan.reaches[reachIndex]?.dischargesM3s.get(flowName) ?? 0;
+    const upstreamAreaM2 = section?.areaM2(jump.upstreamDepthM) ?? Number.NaN;
+    const runOffsetM = runs.find((run) => reachIndex >= run.firstReachIndex && reachIndex < run.firstReachIndex + run.reaches.length)?.startStationM ?? 0;
+    const result: HydraulicJumpResult = {
+      station_m: jump.stationM + runOffsetM,
+      reach: reachName(reachIndex),
+      placement,
+      upstreamDepth_m: jump.upstreamDepthM,
+      downstreamDepth_m: jump.downstreamDepthM,
+      upstreamFroudeNumber: jump.upstreamFroudeNumber,
+      upstreamVelocity_mps: upstreamAreaM2 > 0 ? dischargeM3s / upstreamAreaM2 : 0,
+      energyLoss_m: jump.energyLossM,
+      jumpType: jump.jumpType,
+      supercriticalFrom: reachName(originReachIndex),
+      sweptOut,
+      description: jump.description,
+    };
+    return { result, reachIndex, originReachIndex, holdingReachIndex };
+  });
+
+  // Supercritical flow leaving the channel with no jump, although it crossed a reach that could have held one.
+  let sweptOutExit: SweptOutExit | null = null;
+  const lastIndex = points.length - 1;
+  const lastPoint = points[lastIndex];
+  const endsWithJump = jumps.some((jump) => jump.result.placement === 'beyond-outlet');
+  if (lastPoint !== undefined && regimes[lastIndex] === 'supercritical' && !endsWithJump) {
+    const originReachIndex = supercriticalOriginReachIndex(regimes, pointReaches, lastIndex) ?? (pointReaches[lastIndex] as number);
+    const holdingReachIndex = holdingReachAtOrBelow(originReachIndex);
+    if (holdingReachIndex !== undefined) {
+      sweptOutExit = {
+        originReachIndex,
+        holdingReachIndex,
+        depthM: lastPoint.depth_m,
+        froudeNumber: lastPoint.froudeNumber,
+        velocityMps: lastPoint.velocity_mps,
+        stationM: lastPoint.station_m,
+      };
+    }
+  }
+
+  return {
+    model: {
+      flow: flowName,
+      computed: true,
+      failure: null,
+      datum,
+      points,
+      segments,
+      jumps: jumps.map((jump) => jump.result),
+      notes,
+      maximumEnergyResidual_m: maximumResidualM,
+      provenance: PROFILE_PROVENANCE,
+    },
+    reachProfiles,
+    jumps,
+    sweptOutExit,
+    failure: null,
+  };
+}
+
+/** The reach of the first point of the unbroken supercritical stretch that ends at `endIndex`; undefined if that point is not supercritical. */
+function supercriticalOriginReachIndex(regimes: readonly ProfilePoint['regime'][], pointReaches: readonly number[], endIndex: number): number | undefined {
+  if (regimes[endIndex] !== 'supercritical') return undefined;
+  let index = endIndex;
+  while (index > 0 && regimes[index - 1] === 'supercritical') index--;
+  return pointReaches[index];
+}

@@ -1,0 +1,91 @@
+/**
+ * Defects the fuzzing found in code this suite's author may not change (the engine outside its profile folder, the
+ * report renderer), reported to their owners. Each has a reproduction; known-defects.test.ts checks that it is
+ * still present, and the fuzz suites set aside problems that match it (and say how many). When an owner fixes one,
+ * its test fails: delete the entry here and the fuzzing covers that ground again.
+ */
+import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import { rectangleSection, solveCriticalDepth, solveNormalDepth, trapezoidSection } from '../../language/hydraulics/index.js';
+import { renderReportHtml } from '../../language/report/report-html.js';
+import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
+
+export interface KnownDefect {
+  readonly id: string;
+  /** Whose code it is in. */
+  readonly owner: string;
+  readonly summary: string;
+  /** Whether a problem sentence of the document harness is this defect. */
+  readonly matches: (problem: string) => boolean;
+  /** Runs the reproduction; true while the defect is present. */
+  readonly present: () => Promise<boolean>;
+}
+
+const CFS = 0.3048 ** 3;
+
+/** The report as a reader sees it: no style block, no data attributes (raw values for scripts). */
+function shown(html: string): string {
+  return html.replace(/<style[\s\S]*?<\/style>/g, '').replace(/\sdata-[\w-]+="[^"]*"/g, '');
+}
+
+async function sampleReport(name: string, from: string, to: string): Promise<string> {
+  const samples = sampleFiles();
+  const text = samples[name] ?? '';
+  if (!text.includes(from)) throw new Error(`the sample ${name} no longer contains '${from}'; update this reproduction`);
+  const { documents } = await buildWorkspace({ [name]: text.replace(from, to), 'linings.runnel': samples['linings.runnel'] ?? '' });
+  const document = documents[0];
+  if (document === undefined) throw new Error('no document');
+  return shown(renderReportHtml(analyzeDocument(document), { generatedAt: new Date(0), fileName: name }));
+}
+
+export const KNOWN_DEFECTS: readonly KnownDefect[] = [
+  {
+    id: 'engine-infinite-last-depth',
+    owner: 'engine (language/hydraulics/critical-flow.ts, uniform-flow.ts)',
+    summary:
+      'A section far too narrow to compute with (bottom width 1e-300 ft) makes the depth iterations run away: the result is "did-not-converge" ' +
+      'with "last depth Infinity m" in its message, which the analysis shows in a finding. It should be an invalid-input result in plain words.',
+    matches: (problem) => /shows '(Infinity|NaN)'.*last depth -?(Infinity|NaN) m/.test(problem),
+    present: async () => {
+      const section = rectangleSection({ bottomWidthM: 3.048e-301 });
+      const critical = solveCriticalDepth(section, 38 * CFS);
+      const normal = solveNormalDepth(section, { dischargeM3s: 38 * CFS, manningN: 0.03, bedSlope: 0.01 });
+      return (!critical.converged && /Infinity|NaN/.test(critical.message)) || (!normal.converged && /Infinity|NaN/.test(normal.message));
+    },
+  },
+  {
+    id: 'engine-infinite-conveyance-message',
+    owner: 'engine (language/hydraulics/uniform-flow.ts)',
+    summary:
+      "A Manning's n of 1.8e308 (finite, flagged only as unusual) gives the message \"a conveyance Q n / sqrt(S) of Infinity m^(8/3)\", shown in a finding.",
+    matches: (problem) => /shows '(Infinity|NaN)'.*of -?(Infinity|NaN) m\^\(8\/3\)/.test(problem),
+    present: async () => {
+      const result = solveNormalDepth(trapezoidSection({ bottomWidthM: 2, leftSideSlopeHV: 2, rightSideSlopeHV: 2 }), { dischargeM3s: 1, manningN: 1.7976931348623157e308, bedSlope: 0.01 });
+      return !result.converged && /Infinity|NaN/.test(result.message);
+    },
+  },
+  {
+    id: 'report-drawing-overflow',
+    owner: 'report renderer (language/report/longitudinal-svg.ts, rating-curve-svg.ts)',
+    summary:
+      'Finite but enormous inputs overflow in the drawings: a reach 1.8e308 ft long makes the longitudinal view label a station "Infinity" ' +
+      '(the stations add up past the largest double); a bottom width of 1.8e308 m puts "Infinity" into a drawn path.',
+    matches: (problem) => /^HTML report shows '(Infinity|NaN)'.*(<path|<line|<text|<polyline|<circle|<rect| d="|points=")/.test(problem),
+    present: async () => {
+      const longitudinal = await sampleReport('roadside-ditches.runnel', 'length 450 ft', 'length 1.7976931348623157e308 ft');
+      const crossSection = await sampleReport('irrigation-canal.runnel', 'bottom width 1.5 m', 'bottom width 1.7976931348623157e308 m');
+      return /Infinity|NaN/.test(longitudinal) || /Infinity|NaN/.test(crossSection);
+    },
+  },
+];
+
+/** Splits harness problems into the unknown ones and those of a known defect (by id). */
+export function setAsideKnownDefects(problems: readonly string[]): { unknown: string[]; known: Map<string, number> } {
+  const unknown: string[] = [];
+  const known = new Map<string, number>();
+  for (const problem of problems) {
+    const defect = KNOWN_DEFECTS.find((candidate) => candidate.matches(problem));
+    if (defect === undefined) unknown.push(problem);
+    else known.set(defect.id, (known.get(defect.id) ?? 0) + 1);
+  }
+  return { unknown, known };
+}
