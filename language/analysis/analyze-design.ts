@@ -277,6 +277,7 @@ function analyzeChannel(
   const profileReaches: ProfileReachPlan[] = analysed.map(({ context, geometry, discharges }) => ({
     name: context.reachName,
     section: context.section.geometry,
+    sectionKey: `${context.section.shape}${JSON.stringify(context.section.dimensions)}`,
     manningN: context.lining.manningN,
     slope: geometry.slope,
     lengthM: geometry.lengthM,
@@ -299,6 +300,7 @@ function analyzeChannel(
     liningLocation: locationOf(context.liningNode),
     maxVelocityMps: context.lining.maxVelocityMps,
     maxShearPa: context.lining.maxShearPa,
+    nearCriticalFroudeHigh: context.criteria.avoidFroude.high,
   }));
   const outletLocation = outletNode === undefined ? null : locationOf(outletNode);
   const draftsByFlow = new Map(profiles.map((profile) => [profile.model.flow, profileFindingDrafts(findingReaches, profile, formatter, outletLocation)]));
@@ -402,18 +404,34 @@ interface ReachContext {
   readonly formatter: MessageFormatter;
 }
 
-function analyzeFlow(context: ReachContext, discharge: FlowDischarge): FlowResult {
+/** The channel's profile at this flow as far as one reach is concerned. */
+interface ReachProfileInput {
+  readonly profile: ComputedFlowProfile | undefined;
+  readonly reachProfile: ReachFlowProfile | null;
+  /** Jump and profile findings drafted for this reach and flow (profile-findings.ts). */
+  readonly drafts: readonly FindingDraft[];
+}
+
+/**
+ * The computed water surface governs the over-topping and freeboard checks where it stands above normal depth by
+ * more than this fraction: below it the two are the same water surface up to the rounding of the step solution
+ * (each step's energy equation is solved to 1e-9 m).
+ */
+const PROFILE_ABOVE_NORMAL_RATIO = 1e-6;
+
+function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInput: ReachProfileInput): FlowResult {
   const { section, lining, slope, criteria, formatter: f } = context;
+  const reachProfile = profileInput.reachProfile;
   const flowName = discharge.flow.name ?? '';
   const dischargeM3s = discharge.dischargeM3s;
   const flowLocation = locationOf(discharge.source);
   const findings: Finding[] = [];
-  const report = (code: string, severity: Severity, message: string, data: Record<string, number | string>, related: Finding['related'] = []): void => {
+  const report = (code: string, severity: Severity, message: string, data: Record<string, number | string>, related: Finding['related'] = [], location = context.reachNameLocation): void => {
     findings.push({
       code,
       severity,
       message,
-      location: context.reachNameLocation,
+      location,
       channel: context.channelName,
       reach: context.reachName,
       flow: flowName,
@@ -470,23 +488,83 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge): FlowResul
   // Freeboard: bank (or crown) above normal depth. Closed conduits are judged by capacity, not freeboard.
   const rimDepthM = section.fullDepthM ?? section.bankDepthM;
   const freeboardM = normal === null || rimDepthM === null ? null : rimDepthM - normal.depth_m;
-  let requiredFreeboardM: number | null = null;
-  let usbrCoefficientM: number | null = null;
-  if (normal !== null && section.fullDepthM === null && criteria.freeboard !== null) {
-    if (criteria.freeboard.kind === 'fixed') requiredFreeboardM = criteria.freeboard.height_m;
-    else {
-      usbrCoefficientM = criteria.freeboard.coefficientC_SI ?? usbrFreeboardCoefficientM(dischargeM3s);
-      requiredFreeboardM = usbrFreeboardM(usbrCoefficientM, normal.depth_m);
-    }
-  }
+  const freeboardRule = section.fullDepthM === null ? criteria.freeboard : null;
+  const usbrCoefficientM = freeboardRule?.kind === 'usbr-rule' ? (freeboardRule.coefficientC_SI ?? usbrFreeboardCoefficientM(dischargeM3s)) : null;
+  const requiredFreeboardAtM = (depthM: number): number | null => {
+    if (freeboardRule === null) return null;
+    if (freeboardRule.kind === 'fixed') return freeboardRule.height_m;
+    return usbrFreeboardM(usbrCoefficientM ?? usbrFreeboardCoefficientM(dischargeM3s), depthM);
+  };
+  const requiredFreeboardM = normal === null ? null : requiredFreeboardAtM(normal.depth_m);
 
-  if (normal !== null) {
-    if (section.fullDepthM === null && section.bankDepthM !== null && normal.depth_m > section.bankDepthM) {
+  // Over-topping and freeboard on the deeper of normal depth and the computed water surface (provenance.ts, OVERTOPPING_BASIS).
+  const profileGoverns = reachProfile !== null && (normal === null || reachProfile.maximumDepth_m > normal.depth_m * (1 + PROFILE_ABOVE_NORMAL_RATIO));
+  const bankDepthM = section.fullDepthM === null ? section.bankDepthM : null;
+  if (bankDepthM !== null && reachProfile !== null && profileGoverns) {
+    const depthM = reachProfile.maximumDepth_m;
+    const stationM = reachProfile.maximumDepthStation_m;
+    const normalData: Record<string, number> = normal === null ? {} : { normalDepth_m: normal.depth_m };
+    if (depthM > bankDepthM) {
+      const firstRange = reachProfile.overtoppedRanges[0];
       report(
         FINDING_CODES.overtopping,
         'error',
-        FINDING_MESSAGES.overtopping(f, { flow: flowName, normalDepthM: normal.depth_m, bankDepthM: section.bankDepthM, section: context.sectionNode.name ?? '' }),
-        { normalDepth_m: normal.depth_m, bankDepth_m: section.bankDepthM },
+        FINDING_MESSAGES.overtoppingByProfile(f, {
+          flow: flowName,
+          depthM,
+          stationM,
+          bankDepthM,
+          section: context.sectionNode.name ?? '',
+          ranges: reachProfile.overtoppedRanges,
+          normalDepthM: normal?.depth_m ?? null,
+          profileClass: profileClassAt(profileInput.profile, context.reachName, stationM),
+        }),
+        {
+          depth_m: depthM,
+          station_m: stationM,
+          bankDepth_m: bankDepthM,
+          judgedOn: 'profile',
+          ...normalData,
+          ...(firstRange === undefined ? {} : { fromStation_m: firstRange.fromStation_m, toStation_m: firstRange.toStation_m }),
+        },
+        [sectionRelated],
+      );
+    } else {
+      const requiredM = requiredFreeboardAtM(depthM);
+      const actualM = bankDepthM - depthM;
+      if (requiredM !== null && actualM < requiredM) {
+        report(
+          FINDING_CODES.freeboardBelowRequired,
+          'warning',
+          FINDING_MESSAGES.freeboardBelowRequiredByProfile(f, { flow: flowName, freeboardM: actualM, requiredM, depthM, stationM, normalDepthM: normal?.depth_m ?? null, usbrCoefficientM }),
+          {
+            actual_m: actualM,
+            required_m: requiredM,
+            depth_m: depthM,
+            station_m: stationM,
+            judgedOn: 'profile',
+            ...normalData,
+            ...(usbrCoefficientM === null ? {} : { usbrCoefficient_m: usbrCoefficientM }),
+          },
+          [sectionRelated],
+        );
+      }
+    }
+  } else if (normal !== null && bankDepthM !== null) {
+    if (normal.depth_m > bankDepthM) {
+      // Say where the computed water surface stands only where it is drawn down clearly below normal depth.
+      const drawnDown = reachProfile !== null && reachProfile.maximumDepth_m < normal.depth_m * (1 - NORMAL_DEPTH_BAND_RATIO);
+      report(
+        FINDING_CODES.overtopping,
+        'error',
+        FINDING_MESSAGES.overtopping(f, {
+          flow: flowName,
+          normalDepthM: normal.depth_m,
+          bankDepthM,
+          section: context.sectionNode.name ?? '',
+          profileMaximum: drawnDown && reachProfile !== null ? { depthM: reachProfile.maximumDepth_m, stationM: reachProfile.maximumDepthStation_m } : null,
+        }),
+        { normalDepth_m: normal.depth_m, bankDepth_m: bankDepthM, judgedOn: 'normal-depth' },
         [sectionRelated],
       );
     } else if (freeboardM !== null && requiredFreeboardM !== null && freeboardM < requiredFreeboardM) {
@@ -494,11 +572,13 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge): FlowResul
         FINDING_CODES.freeboardBelowRequired,
         'warning',
         FINDING_MESSAGES.freeboardBelowRequired(f, { flow: flowName, freeboardM, requiredM: requiredFreeboardM, normalDepthM: normal.depth_m, usbrCoefficientM }),
-        { actual_m: freeboardM, required_m: requiredFreeboardM, normalDepth_m: normal.depth_m, ...(usbrCoefficientM === null ? {} : { usbrCoefficient_m: usbrCoefficientM }) },
+        { actual_m: freeboardM, required_m: requiredFreeboardM, normalDepth_m: normal.depth_m, judgedOn: 'normal-depth', ...(usbrCoefficientM === null ? {} : { usbrCoefficient_m: usbrCoefficientM }) },
         [sectionRelated],
       );
     }
+  }
 
+  if (normal !== null) {
     const froude = normal.froudeNumber;
     const band = criteria.avoidFroude;
     if (froude >= band.low && froude <= band.high) {
@@ -546,6 +626,13 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge): FlowResul
     }
   }
 
+  // Jumps and profile failures drafted for this reach; a surcharge already reported as over capacity is not repeated.
+  const overCapacity = findings.some((finding) => finding.code === FINDING_CODES.conduitOverCapacity);
+  for (const draft of profileInput.drafts) {
+    if (draft.code === FINDING_CODES.conduitSurcharged && overCapacity) continue;
+    report(draft.code, draft.severity, draft.message, draft.data, draft.related, draft.location);
+  }
+
   return {
     flow: flowName,
     description: discharge.flow.description ?? null,
@@ -563,7 +650,14 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge): FlowResul
     requiredFreeboard_m: requiredFreeboardM,
     status: statusOf(findings),
     findings,
+    profile: reachProfile,
   };
+}
+
+/** The class of the profile segment of a reach that contains a station ('M1', ...); null when not found. */
+function profileClassAt(profile: ComputedFlowProfile | undefined, reachName: string, stationM: number): string | null {
+  const segment = profile?.model.segments.find((candidate) => candidate.reach === reachName && stationM >= candidate.fromStation_m && stationM <= candidate.toStation_m && candidate.profileClass !== 'uniform');
+  return segment?.profileClass ?? null;
 }
 
 function stateResult(state: HydraulicState): StateResult {

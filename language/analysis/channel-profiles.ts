@@ -11,6 +11,7 @@
  */
 import {
   computeChannelProfile,
+  describeJumpType,
   profileProvenance,
   type ChannelProfile,
   type ChannelProfileResult,
@@ -67,6 +68,8 @@ export const PROFILE_PROVENANCE: Provenance = (() => {
 export interface ProfileReachPlan {
   readonly name: string;
   readonly section: SectionGeometry;
+  /** Identifies the section's shape and dimensions (equal keys, equal geometry): part of the memo key. */
+  readonly sectionKey: string;
   readonly manningN: number;
   readonly slope: number;
   readonly lengthM: number;
@@ -124,8 +127,41 @@ export interface ComputedFlowProfile {
   readonly failure: ProfileFailure | null;
 }
 
+/**
+ * Profiles of recently analysed channels by everything they depend on. An edit recomputes the analysis of the
+ * document, but only the channels whose inputs it changed need their profiles computed again; the results are
+ * never modified, so they can be shared between analyses. Bounded, oldest entry dropped first.
+ */
+const profileMemo = new Map<string, readonly ComputedFlowProfile[]>();
+const PROFILE_MEMO_CHANNELS = 256;
+
 /** The profile of every flow of a channel, in the order of `flowNames`. */
-export function computeChannelProfiles(plan: ChannelPlan, flowNames: readonly string[]): ComputedFlowProfile[] {
+export function computeChannelProfiles(plan: ChannelPlan, flowNames: readonly string[]): readonly ComputedFlowProfile[] {
+  const key = memoKey(plan, flowNames);
+  const remembered = profileMemo.get(key);
+  if (remembered !== undefined) return remembered;
+  const profiles = computeUnremembered(plan, flowNames);
+  if (profileMemo.size >= PROFILE_MEMO_CHANNELS) {
+    const oldest = profileMemo.keys().next();
+    if (oldest.done !== true) profileMemo.delete(oldest.value);
+  }
+  profileMemo.set(key, profiles);
+  return profiles;
+}
+
+/** Forgets every remembered channel profile (benchmarks use it to time a fresh computation). */
+export function forgetChannelProfiles(): void {
+  profileMemo.clear();
+}
+
+function memoKey(plan: ChannelPlan, flowNames: readonly string[]): string {
+  const reaches = plan.reaches.map((reach) =>
+    [reach.name, reach.sectionKey, reach.manningN, reach.slope, reach.lengthM, reach.bankHeightM, reach.upstreamInvertM, reach.downstreamInvertM, ...[...reach.dischargesM3s].flat()].join('|'),
+  );
+  return JSON.stringify([plan.outlet, plan.silentObstacle, flowNames, reaches]);
+}
+
+function computeUnremembered(plan: ChannelPlan, flowNames: readonly string[]): ComputedFlowProfile[] {
   const bed = channelBed(plan.reaches.map((reach) => ({ slope: reach.slope, length_m: reach.lengthM, upstreamInvert_m: reach.upstreamInvertM, downstreamInvert_m: reach.downstreamInvertM })));
   const engineReaches: ProfileReachInput[] = plan.reaches.map((reach, index) => ({
     name: reach.name,
@@ -166,17 +202,17 @@ interface Run {
   carriedIn: boolean;
 }
 
-function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], datum: ChannelFlowProfile['datum'], flowName: string): ComputedFlowProfile {
+/**
+ * The profile of one flow from reach `fromReachIndex` to the outlet. Where the water fills a conduit, the part of
+ * the channel below that conduit is computed on its own (its head takes critical depth when steep, as below any
+ * inlet); the part above it flows under pressure and has no free-surface profile.
+ */
+function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], datum: ChannelFlowProfile['datum'], flowName: string, fromReachIndex = 0): ComputedFlowProfile {
   const fail = (failure: ProfileFailure): ComputedFlowProfile => ({
     model: {
       flow: flowName,
       computed: false,
-      failure: {
-        reason: failure.reason,
-        message: failure.message,
-        reach: failure.reachIndex === null ? null : (plan.reaches[failure.reachIndex]?.name ?? null),
-        station_m: failure.stationM,
-      },
+      failure: modelFailure(plan, failure),
       datum,
       points: [],
       segments: [],
@@ -207,21 +243,27 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
     });
   }
 
-  const runs = splitIntoRuns(plan, engineReaches, flowName);
+  const runs = splitIntoRuns(plan, engineReaches, flowName, fromReachIndex);
   const channelOutlet = engineOutlet(outlet);
   const outletOf = (runIndex: number): OutletControl => {
     if (runIndex === runs.length - 1) return channelOutlet;
     const below = (runs[runIndex + 1] as Run).result as ChannelProfile;
     return { kind: 'water-level', elevationM: (below.points[0] as ProfilePoint).waterSurfaceElevationM };
   };
-  const runFailure = (run: Run, result: ChannelProfileResult & { converged: false }): ComputedFlowProfile =>
-    fail({
+  const runFailure = (run: Run, result: ChannelProfileResult & { converged: false }): ComputedFlowProfile => {
+    const failure: ProfileFailure = {
       kind: 'reported',
       reason: result.reason,
-      message: result.message,
+      message: inChannelStations(result.message, run.startStationM),
       reachIndex: result.reachIndex === null ? null : run.firstReachIndex + result.reachIndex,
       stationM: result.stationM === null ? null : run.startStationM + result.stationM,
-    });
+    };
+    if (failure.reason === 'conduit-surcharged' && failure.reachIndex !== null && failure.reachIndex + 1 < plan.reaches.length) {
+      const below = computeFlowProfile(plan, engineReaches, datum, flowName, failure.reachIndex + 1);
+      if (below.failure === null) return { ...below, model: { ...below.model, failure: modelFailure(plan, failure) }, failure };
+    }
+    return fail(failure);
+  };
 
   // From the outlet upstream: each run ends at the level the run below starts with.
   for (let index = runs.length - 1; index >= 0; index--) {
@@ -250,11 +292,24 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
   return assemble(plan, runs, datum, flowName);
 }
 
-/** Consecutive reaches with the same discharge of the flow. */
-function splitIntoRuns(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], flowName: string): Run[] {
+function modelFailure(plan: ChannelPlan, failure: ProfileFailure): NonNullable<ChannelFlowProfile['failure']> {
+  return {
+    reason: failure.reason,
+    message: failure.message,
+    reach: failure.reachIndex === null ? null : (plan.reaches[failure.reachIndex]?.name ?? null),
+    station_m: failure.stationM,
+  };
+}
+
+/** Consecutive reaches, from `fromReachIndex` on, with the same discharge of the flow. */
+function splitIntoRuns(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], flowName: string, fromReachIndex: number): Run[] {
   const runs: Run[] = [];
   let stationM = 0;
   plan.reaches.forEach((reach, index) => {
+    if (index < fromReachIndex) {
+      stationM += reach.lengthM;
+      return;
+    }
     const dischargeM3s = reach.dischargesM3s.get(flowName) as number;
     const current = runs[runs.length - 1];
     if (current !== undefined && current.dischargeM3s === dischargeM3s) {
@@ -278,7 +333,7 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
   const pointReaches: number[] = [];
   const segments: ProfileSegmentResult[] = [];
   const notes: ProfileNoteResult[] = [];
-  const summaries: ReachProfileSummary[] = [];
+  const summaries: (ReachProfileSummary | undefined)[] = plan.reaches.map(() => undefined);
   const rawJumps: { jump: HydraulicJump; reachIndex: number; originReachIndex: number; placement: HydraulicJump['placement'] }[] = [];
   let maximumResidualM = 0;
 
@@ -312,18 +367,30 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
         description: segment.description,
       });
     }
-    for (const summary of result.reaches) summaries.push(summary);
+    for (const summary of result.reaches) summaries[summary.reachIndex + reachOffset] = summary;
     // A jump the run put beyond its outlet stands at the change of discharge unless the run below carries the flow on.
     const carriedOn = next !== undefined && next.carriedIn && !(next.result?.notes ?? []).some((note) => INLET_NOTES.has(note.code));
-    for (const jump of result.jumps) {
-      let placement = jump.placement;
-      if (placement === 'beyond-outlet' && !isLast) {
+    for (const engineJump of result.jumps) {
+      let jump = engineJump;
+      if (jump.placement === 'beyond-outlet' && !isLast) {
         if (carriedOn) continue;
-        placement = 'at-junction';
+        // The water below the change of discharge holds it at the junction: its depths and loss are those there.
+        const exit = result.points[result.points.length - 1] as ProfilePoint;
+        const below = next?.result?.points[0];
+        if (below === undefined) continue;
+        const energyLossM = exit.energyElevationM - below.energyElevationM;
+        jump = {
+          ...jump,
+          placement: 'at-junction',
+          downstreamDepthM: below.depthM,
+          energyLossM,
+          description: `Hydraulic jump at the junction where the discharge changes below reach "${jump.reachName}" (station ${jump.stationM.toFixed(2)} m): ${describeJumpType(jump.jumpType)}, from ${jump.upstreamDepthM.toFixed(3)} m to ${below.depthM.toFixed(3)} m, energy loss ${energyLossM.toFixed(3)} m.`,
+        };
       }
+      if (offsetM !== 0) jump = { ...jump, description: inChannelStations(jump.description, offsetM) };
       const local = jump.supercriticalFromReachIndex;
       const originReachIndex = run.carriedIn && local === 0 && carriedOriginIndex !== undefined ? carriedOriginIndex : local + reachOffset;
-      rawJumps.push({ jump, reachIndex: jump.reachIndex + reachOffset, originReachIndex, placement });
+      rawJumps.push({ jump, reachIndex: jump.reachIndex + reachOffset, originReachIndex, placement: jump.placement });
     }
     for (const note of result.notes) {
       if (!isLast && OUTLET_NOTES.has(note.code)) {
@@ -339,9 +406,11 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
         continue;
       }
       if (runIndex > 0 && run.carriedIn && INLET_NOTES.has(note.code)) continue;
+      // The jump records say whether a jump is swept out, by the rule of this module (PlacedJump).
+      if (note.code === 'jump-swept-out-of-reach') continue;
       notes.push({
         code: note.code,
-        message: note.message,
+        message: inChannelStations(note.message, offsetM),
         reach: note.reachIndex === null ? null : reachName(note.reachIndex + reachOffset),
         station_m: note.stationM === null ? null : note.stationM + offsetM,
       });
@@ -349,9 +418,10 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     maximumResidualM = Math.max(maximumResidualM, result.maximumEnergyResidualM);
   });
 
-  // Shift each run's summaries to channel stations (summaries are in run order, one per reach).
-  const reachProfiles: ReachFlowProfile[] = summaries.map((summary, index) => {
-    const run = runs.find((candidate) => index >= candidate.firstReachIndex && index < candidate.firstReachIndex + candidate.reaches.length) as Run;
+  // Each run's summaries in channel stations; reaches above a surcharged conduit have none.
+  const reachProfiles: (ReachFlowProfile | null)[] = summaries.map((summary, index) => {
+    const run = runs.find((candidate) => index >= candidate.firstReachIndex && index < candidate.firstReachIndex + candidate.reaches.length);
+    if (summary === undefined || run === undefined) return null;
     const offsetM = run.startStationM;
     return {
       startStation_m: summary.startStationM + offsetM,
@@ -364,7 +434,7 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
       profileClasses: [...summary.profileClasses],
     };
   });
-  const holdsJump = summaries.map((summary) => summary.slopeClass === 'mild' || summary.slopeClass === 'horizontal' || summary.slopeClass === 'adverse');
+  const holdsJump = summaries.map((summary) => summary !== undefined && (summary.slopeClass === 'mild' || summary.slopeClass === 'horizontal' || summary.slopeClass === 'adverse'));
   const holdingReachAtOrBelow = (originIndex: number): number | undefined => {
     for (let index = Math.max(0, originIndex); index < holdsJump.length; index++) if (holdsJump[index]) return index;
     return undefined;
@@ -432,6 +502,15 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     sweptOutExit,
     failure: null,
   };
+}
+
+/**
+ * The engine words a station as "station 12.34 m", measured from the head of the reaches it was given; a run that
+ * starts further down the channel has its stations shifted to the channel's.
+ */
+function inChannelStations(text: string, offsetM: number): string {
+  if (offsetM === 0) return text;
+  return text.replace(/station (-?\d+(?:\.\d+)?) m/g, (_match, value: string) => `station ${(Number(value) + offsetM).toFixed(2)} m`);
 }
 
 /** The reach of the first point of the unbroken supercritical stretch that ends at `endIndex`; undefined if that point is not supercritical. */

@@ -64,10 +64,13 @@ export interface JumpWords {
   readonly froude: number;
   readonly jumpType: Parameters<typeof describeJumpType>[0];
   readonly energyLossM: number;
+  /** For a jump at a junction: true when it stands at the head of its reach (the foot of a drop above), false at the reach's end. */
+  readonly atReachHead: boolean;
 }
 
 function jumpPlace(f: MessageFormatter, p: JumpWords): string {
-  return p.placement === 'at-junction' ? `at the junction at ${f.station(p.stationM)} (reach '${p.reach}')` : `in reach '${p.reach}' at ${f.station(p.stationM)}`;
+  if (p.placement !== 'at-junction') return `in reach '${p.reach}' at ${f.station(p.stationM)}`;
+  return `at the ${p.atReachHead ? 'upstream' : 'downstream'} end of reach '${p.reach}', ${f.station(p.stationM)}`;
 }
 
 function jumpRise(f: MessageFormatter, p: JumpWords): string {
@@ -161,12 +164,17 @@ export const FINDING_MESSAGES = {
     );
   },
 
-  /** Said with a jump when the lining under it states no limits. */
-  jumpLiningNotChecked: (p: { lining: string }) => ` Lining '${p.lining}' states no permissible velocity or shear, so whether it resists the jump is not checked.`,
+  /** Said with a jump when the linings under it state no limits. */
+  jumpLiningNotChecked: (p: { linings: readonly string[] }) =>
+    p.linings.length === 0
+      ? ''
+      : p.linings.length === 1
+        ? ` Lining '${p.linings[0] ?? ''}' states no permissible velocity or shear, so whether it resists the jump is not checked.`
+        : ` Linings ${p.linings.map((name) => `'${name}'`).join(' and ')} state no permissible velocity or shear, so whether they resist the jump is not checked.`,
 
   conduitSurcharged: (f: MessageFormatter, p: { flow: string; section: string; reach: string; stationM: number }) =>
     `At ${p.flow} the computed water surface reaches the crown of conduit '${p.section}' in reach '${p.reach}' near ${f.station(p.stationM)} ${STATIONS_FROM_HEAD}: ` +
-    'the conduit would flow full, so the free-surface profile stops there and over-topping and freeboard in this channel fall back to normal depth at this flow. Check the hydraulic grade line by a pressure-flow method.',
+    'the conduit would flow full under pressure from there upstream. The water-surface profile covers only the reaches below it; over-topping and freeboard of the reaches above are judged on normal depth at this flow. Check the hydraulic grade line by a pressure-flow method.',
 
   profileNotComputed: (_f: MessageFormatter, p: { flow: string; detail: string }) =>
     `The water-surface profile at ${p.flow} was not computed: ${p.detail} Over-topping and freeboard in this channel are judged on normal depth alone at this flow.`,

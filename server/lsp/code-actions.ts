@@ -5,8 +5,10 @@
  * - `unknown-reference`: change to the suggested name, or create the missing lining, section (one action per
  *   shape) or flow as a stub that validation then asks to complete (no invented numbers);
  * - on a reach ("size this section"): the smallest standard bottom width or nominal pipe diameter that passes
- *   every check for every flow (server/lsp/section-sizing.ts). A section other reaches or files also use is not
- *   changed under them: the reach gets its own copy. When no size passes, the action is shown disabled with why.
+ *   every check for every flow. Sizes are searched with the analysis' uniform-flow rules (section-sizing.ts) and
+ *   the one offered is confirmed by re-analysing the edited design, profile and all (sizing-verification.ts). A
+ *   section other reaches or files also use is not changed under them: the reach gets its own copy. When no size
+ *   passes, the action is shown disabled with why.
  */
 import { AstUtils, CstUtils, GrammarUtils, type AstNode, type IndexManager, type LangiumDocument, type References } from 'langium';
 import type { CodeActionProvider, LangiumServices } from 'langium/lsp';
@@ -33,20 +35,26 @@ import {
   type RunnelFile,
   type Section,
 } from '../../language/generated/ast.js';
-import { reachParts } from '../../language/analysis/design-inputs.js';
-import type { DesignAnalysis, ReachResult } from '../../language/analysis/model.js';
+import { reachParts, SHAPE_PROPERTIES } from '../../language/analysis/design-inputs.js';
+import { DIAGNOSTICS } from '../../language/validation/diagnostic-messages.js';
+import type { DesignAnalysis, Finding, ReachResult } from '../../language/analysis/model.js';
 import { findUnit, unitsOfDimension, DISPLAY_UNITS, type Dimension, type UnitSystem } from '../../language/units/units.js';
 import { reachResultOf, type DocumentAnalyses } from './document-analysis.js';
-import { sizeSection, sizingInputsOf, type SizingResult } from './section-sizing.js';
+import { checkShortName } from './result-text.js';
+import { sizesPassingUniformChecks, sizingInputsOf, type SizingResult } from './section-sizing.js';
+import { SizingVerifier } from './sizing-verification.js';
 
-/** Diagnostic codes the actions answer (validation's catalogue: language/validation/diagnostic-messages.ts). */
-const CODES = { unitMissing: 'unit-missing', unitUnknown: 'unit-unknown', unknownReference: 'unknown-reference' } as const;
+/** Diagnostic codes the actions answer, from validation's catalogue. */
+const CODES = { unitMissing: DIAGNOSTICS.unitMissing.code, unitUnknown: DIAGNOSTICS.unitUnknown.code, unknownReference: DIAGNOSTICS.unknownReference.code } as const;
 
-const SECTION_SHAPES = ['trapezoid', 'rectangle', 'triangle', 'parabola', 'circle'] as const;
+/** The shapes a section stub can take, from the one table of what each shape needs. */
+const SECTION_SHAPES = Object.keys(SHAPE_PROPERTIES);
 
 export class RunnelCodeActionProvider implements CodeActionProvider {
   private readonly references: References;
   private readonly indexManager: IndexManager;
+  private readonly verifier = new SizingVerifier();
+  private readonly sizings = new WeakMap<DesignAnalysis, Map<string, Promise<SizingOutcome>>>();
   private disabledSupport = false;
 
   constructor(
@@ -60,7 +68,7 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
     });
   }
 
-  getCodeActions(document: LangiumDocument, params: CodeActionParams): Array<CodeAction | Command> {
+  async getCodeActions(document: LangiumDocument, params: CodeActionParams): Promise<Array<CodeAction | Command>> {
     const root = document.parseResult.value;
     if (!isRunnelFile(root)) return [];
     const actions: CodeAction[] = [];
@@ -72,7 +80,7 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
       else if (code === CODES.unknownReference) actions.push(...replaceWithSuggestion(document, diagnostic, 'name'), ...createStubActions(document, root, diagnostic));
       else if (dataOf(diagnostic)['source'] === 'analysis') findingDiagnostics.push(diagnostic);
     }
-    const sizing = this.sizingAction(document, params.range.start, findingDiagnostics);
+    const sizing = await this.sizingAction(document, params.range.start, findingDiagnostics);
     if (sizing !== undefined) actions.push(sizing);
     const only = params.context.only;
     return only === undefined || only.length === 0 ? actions : actions.filter((action) => only.some((kind) => action.kind === kind || (action.kind ?? '').startsWith(`${kind}.`)));
@@ -80,7 +88,7 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
 
   // ---------------------------------------------------------------------------------------------- sizing
 
-  private sizingAction(document: LangiumDocument, position: Position, findingDiagnostics: readonly Diagnostic[]): CodeAction | undefined {
+  private async sizingAction(document: LangiumDocument, position: Position, findingDiagnostics: readonly Diagnostic[]): Promise<CodeAction | undefined> {
     const rootCst = document.parseResult.value.$cstNode;
     if (rootCst === undefined) return undefined;
     const leaf = CstUtils.findLeafNodeAtOffset(rootCst, document.textDocument.offsetAt(position));
@@ -91,18 +99,89 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
     const section = reachParts(reach).sectionUse?.section?.ref;
     if (result === undefined || section === undefined) return undefined;
     const system = writtenSystemOf(section) ?? analysis.displayUnits;
-    const sizing = cachedSizing(analysis, result, system);
     const related = findingDiagnostics.filter((diagnostic) => dataOf(diagnostic)['reach'] === result.name && dataOf(diagnostic)['channel'] === result.channel);
     const kind = related.length > 0 ? CodeActionKind.QuickFix : CodeActionKind.RefactorRewrite;
     const title = `Size section '${section.name ?? ''}' for reach '${result.name}'`;
-    if (!sizing.ok) return this.disabled(title, kind, `No standard size passes: ${sizing.reason}.`);
-    const current = result.section.dimensions[sizing.dimensionKey];
-    if (current !== undefined && Math.abs(current - sizing.valueM) <= 1e-9 * Math.max(current, 1e-9)) {
-      return this.disabled(title, kind, `The ${sizing.property} ${sizing.text} is already the smallest standard size that passes every check.`);
+    const outcome = await this.cachedSizing(analysis, result, system, () => this.confirmedSize(document, reach, result, section, system));
+    if (outcome.kind === 'none') return this.disabled(title, kind, `No standard size passes: ${outcome.reason}.`);
+    if (outcome.kind === 'already') return this.disabled(title, kind, `The ${outcome.sizing.property} ${outcome.sizing.text} is already the smallest standard size that passes every check.`);
+    return { title: `${outcome.edit.title} (smallest standard size passing every check)`, kind, edit: outcome.edit.edit, ...(related.length > 0 ? { diagnostics: related } : {}) };
+  }
+
+  /** Sizing is hundreds of engine solves and a re-analysis or two: once per analysis, reach and unit system. */
+  private cachedSizing(analysis: DesignAnalysis, reach: ReachResult, system: UnitSystem, compute: () => Promise<SizingOutcome>): Promise<SizingOutcome> {
+    let byReach = this.sizings.get(analysis);
+    if (byReach === undefined) {
+      byReach = new Map();
+      this.sizings.set(analysis, byReach);
     }
-    const edit = this.sizingEdit(document, reach, section, sizing);
-    if (edit === undefined) return undefined;
-    return { title: `${edit.title} (smallest standard size passing every check)`, kind, edit: edit.edit, ...(related.length > 0 ? { diagnostics: related } : {}) };
+    const key = `${reach.location.range.start.line}:${reach.location.range.start.character}:${system}`;
+    let outcome = byReach.get(key);
+    if (outcome === undefined) {
+      outcome = compute();
+      byReach.set(key, outcome);
+      // A failure is not remembered: the next request tries again.
+      outcome.catch(() => byReach?.delete(key));
+    }
+    return outcome;
+  }
+
+  /**
+   * The smallest size the uniform-flow search proposes that the analysis of the edited design confirms: the
+   * reach has no finding left at any flow. At most MAX_CONFIRMED_SIZES re-analyses, then why not.
+   */
+  private async confirmedSize(document: LangiumDocument, reach: Reach, result: ReachResult, section: Section, system: UnitSystem): Promise<SizingOutcome> {
+    const candidates = sizesPassingUniformChecks(sizingInputsOf(result), system);
+    let remaining: readonly Finding[] = [];
+    let firstTried: string | undefined;
+    let lastTried: string | undefined;
+    for (let tried = 0; tried < MAX_CONFIRMED_SIZES; tried++) {
+      const next = candidates.next();
+      if (next.done === true) {
+        if (firstTried === undefined) return { kind: 'none', reason: next.value.reason };
+        break;
+      }
+      const sizing = next.value;
+      firstTried ??= sizing.text;
+      lastTried = sizing.text;
+      const current = result.section.dimensions[sizing.dimensionKey];
+      if (current !== undefined && Math.abs(current - sizing.valueM) <= 1e-9 * Math.max(current, 1e-9)) {
+        const findings = result.flows.flatMap((flow) => flow.findings);
+        if (findings.length === 0) return { kind: 'already', sizing };
+        remaining = findings;
+        continue;
+      }
+      const edit = this.sizingEdit(document, reach, section, sizing);
+      if (edit === undefined) return { kind: 'none', reason: 'the section cannot be edited from here' };
+      const findings = await this.verifier.findingsAfter(this.textsFor(document, section), edit.edit.changes ?? {}, {
+        uri: document.uri.toString(),
+        channel: result.channel,
+        reach: result.name,
+      });
+      if (findings !== undefined && findings.length === 0) return { kind: 'sized', sizing, edit };
+      remaining = findings ?? [];
+    }
+    const names = [...new Set(remaining.map((finding) => checkShortName(finding.code)))].join(', ');
+    const range = firstTried === lastTried ? `at ${firstTried ?? ''}` : `from ${firstTried ?? ''} to ${lastTried ?? ''}`;
+    return {
+      kind: 'none',
+      reason: `the sizes that pass the uniform-flow checks ${range} still fail the analysis of the whole channel (${names || 'the reach is no longer analysed'}): check the water-surface profile and the reaches around it`,
+    };
+  }
+
+  /** The texts the analysis of this design reads: its own and those of the files its names resolve to. */
+  private textsFor(document: LangiumDocument, section: Section): Map<string, string> {
+    const texts = new Map<string, string>([[document.uri.toString(), document.textDocument.getText()]]);
+    const add = (other: LangiumDocument): void => {
+      const uri = other.uri.toString();
+      if (!texts.has(uri)) texts.set(uri, other.textDocument.getText());
+    };
+    add(AstUtils.getDocument(section));
+    for (const reference of document.references) {
+      const targets = 'items' in reference ? reference.items.map((item) => item.ref) : [reference.ref];
+      for (const target of targets) if (target !== undefined) add(AstUtils.getDocument(target));
+    }
+    return texts;
   }
 
   private disabled(title: string, kind: string, reason: string): CodeAction {
@@ -161,23 +240,15 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
 
 // ------------------------------------------------------------------------------------------------ helpers
 
-const sizingCache = new WeakMap<DesignAnalysis, Map<string, SizingResult>>();
+/** Re-analyses of the edited design one sizing may make before it says why no size is offered. */
+const MAX_CONFIRMED_SIZES = 6;
 
-/** Sizing is a few hundred engine solves; it is computed once per analysis, reach and unit system. */
-function cachedSizing(analysis: DesignAnalysis, reach: ReachResult, system: UnitSystem): SizingResult {
-  let byReach = sizingCache.get(analysis);
-  if (byReach === undefined) {
-    byReach = new Map();
-    sizingCache.set(analysis, byReach);
-  }
-  const key = `${reach.nameLocation.range.start.line}:${reach.nameLocation.range.start.character}:${system}`;
-  let result = byReach.get(key);
-  if (result === undefined) {
-    result = sizeSection(sizingInputsOf(reach), system);
-    byReach.set(key, result);
-  }
-  return result;
-}
+type ProposedSize = Extract<SizingResult, { ok: true }>;
+
+type SizingOutcome =
+  | { readonly kind: 'sized'; readonly sizing: ProposedSize; readonly edit: { readonly title: string; readonly edit: WorkspaceEdit } }
+  | { readonly kind: 'already'; readonly sizing: ProposedSize }
+  | { readonly kind: 'none'; readonly reason: string };
 
 /** The unit system the sized dimension is written in, when its unit says. */
 function writtenSystemOf(section: Section): UnitSystem | undefined {

@@ -10,7 +10,7 @@ import { AstUtils, DocumentState, type AstNode, type LangiumDocument } from 'lan
 import type { LangiumSharedServices } from 'langium/lsp';
 import { isReach, type Reach } from '../../language/generated/ast.js';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
-import type { ChannelResult, DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
+import type { DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
 import type { RunnelEditorSettings } from './runnel-settings.js';
 
@@ -50,7 +50,6 @@ export function displaySystemFor(analysis: DesignAnalysis, settings: RunnelEdito
 
 interface AnalysisIndex {
   readonly reachByStart: ReadonlyMap<string, ReachResult>;
-  readonly placeOfReach: ReadonlyMap<ReachResult, { readonly channel: ChannelResult; readonly index: number }>;
 }
 
 const indexes = new WeakMap<DesignAnalysis, AnalysisIndex>();
@@ -63,14 +62,10 @@ function indexOf(analysis: DesignAnalysis): AnalysisIndex {
   let index = indexes.get(analysis);
   if (index === undefined) {
     const reachByStart = new Map<string, ReachResult>();
-    const placeOfReach = new Map<ReachResult, { channel: ChannelResult; index: number }>();
     for (const channel of analysis.channels) {
-      channel.reaches.forEach((reach, reachIndex) => {
-        reachByStart.set(positionKey(reach.location.range.start), reach);
-        placeOfReach.set(reach, { channel, index: reachIndex });
-      });
+      for (const reach of channel.reaches) reachByStart.set(positionKey(reach.location.range.start), reach);
     }
-    index = { reachByStart, placeOfReach };
+    index = { reachByStart };
     indexes.set(analysis, index);
   }
   return index;
@@ -81,11 +76,6 @@ export function reachResultOf(analysis: DesignAnalysis, reach: Reach): ReachResu
   // ReachResult.location is the whole reach block, as reach.$cstNode.
   const start = reach.$cstNode?.range.start;
   return start === undefined ? undefined : indexOf(analysis).reachByStart.get(positionKey(start));
-}
-
-/** The channel of an analysed reach and the reach's position in it (upstream first). */
-export function placeOfReach(analysis: DesignAnalysis, reach: ReachResult): { readonly channel: ChannelResult; readonly index: number } | undefined {
-  return indexOf(analysis).placeOfReach.get(reach);
 }
 
 /** The reach a node lies in, if any. */

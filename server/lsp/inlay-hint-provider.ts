@@ -11,10 +11,9 @@ import type { InlayHintProvider } from 'langium/lsp';
 import { CancellationToken, type InlayHint, type InlayHintParams, type Position, type Range } from 'vscode-languageserver';
 import { isChannel, isReach, isRunnelFile, type Reach } from '../../language/generated/ast.js';
 import { reachParts } from '../../language/analysis/design-inputs.js';
-import type { DesignAnalysis, FlowResult, ReachResult } from '../../language/analysis/model.js';
+import type { FlowResult, ReachResult } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
-import { displaySystemFor, placeOfReach, reachResultOf, sameLocation, type DocumentAnalyses } from './document-analysis.js';
-import { maximumProfileDepthM } from './profile-depth.js';
+import { displaySystemFor, reachResultOf, sameLocation, type DocumentAnalyses } from './document-analysis.js';
 import { findingsTooltip, flowHintText } from './result-text.js';
 import type { HintQuantities, RunnelSettings } from './runnel-settings.js';
 
@@ -40,7 +39,7 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
         if (range === undefined || !overlaps(range, params.range)) continue;
         const result = reachResultOf(analysis, reach);
         if (result === undefined) continue;
-        hints.push(...reachHints(document, reach, result, system, show, analysis));
+        hints.push(...reachHints(document, reach, result, system, show));
       }
     }
     return hints;
@@ -48,10 +47,8 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
 }
 
 /** The hints of one reach: design flows at the end of its first line, its own flows after their values. */
-export function reachHints(document: LangiumDocument, reach: Reach, result: ReachResult, system: UnitSystem, show: HintQuantities, analysis: DesignAnalysis): InlayHint[] {
+export function reachHints(document: LangiumDocument, reach: Reach, result: ReachResult, system: UnitSystem, show: HintQuantities): InlayHint[] {
   const flows = result.flows;
-  const place = show.maximumProfileDepth ? placeOfReach(analysis, result) : undefined;
-  const profileDepthM = (flow: FlowResult): number | undefined => (place === undefined ? undefined : maximumProfileDepthM(place.channel, place.index, flow.flow));
   const uri = document.uri.toString();
   const ownChanges = reachParts(reach).flowChanges.flatMap((block) => block.changes ?? []);
   const hints: InlayHint[] = [];
@@ -62,10 +59,10 @@ export function reachHints(document: LangiumDocument, reach: Reach, result: Reac
       headerFlows.push(flow);
       continue;
     }
-    hints.push(hint(change.$cstNode.range.end, flowHintText(flow, system, show, false, profileDepthM(flow)), flow));
+    hints.push(hint(change.$cstNode.range.end, flowHintText(flow, system, show, false), flow));
   }
   const headerEnd = headerPosition(reach, result);
-  if (headerEnd !== undefined) hints.unshift(...headerFlows.map((flow) => hint(headerEnd, flowHintText(flow, system, show, true, profileDepthM(flow)), flow)));
+  if (headerEnd !== undefined) hints.unshift(...headerFlows.map((flow) => hint(headerEnd, flowHintText(flow, system, show, true), flow)));
   return hints;
 }
 

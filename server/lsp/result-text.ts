@@ -6,6 +6,7 @@
 import { formatNumber, formatQuantity, formatRatio } from '../../language/analysis/format-quantity.js';
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
 import type { CheckStatus, Finding, FlowResult, ReachResult, Severity } from '../../language/analysis/model.js';
+import { NORMAL_DEPTH_BAND_RATIO } from '../../language/hydraulics/profile/profile-defaults.js';
 import { toDisplay, type UnitSystem } from '../../language/units/units.js';
 import type { HintQuantities } from './runnel-settings.js';
 
@@ -27,6 +28,11 @@ export const CHECK_SHORT_NAMES: Readonly<Record<string, string>> = {
   [FINDING_CODES.conduitTwoDepthZone]: 'near full',
   [FINDING_CODES.noNormalDepth]: 'no normal depth',
   [FINDING_CODES.depthSolveFailed]: 'not computed',
+  [FINDING_CODES.hydraulicJump]: 'hydraulic jump',
+  [FINDING_CODES.hydraulicJumpSweptOut]: 'jump swept out',
+  [FINDING_CODES.hydraulicJumpLiningExceeded]: 'jump on lining',
+  [FINDING_CODES.conduitSurcharged]: 'surcharged',
+  [FINDING_CODES.profileNotComputed]: 'no profile',
 };
 
 export function checkShortName(code: string): string {
@@ -42,7 +48,7 @@ export function failedCheckNames(findings: readonly Finding[]): string[] {
  * The compact result of one flow, e.g. `q10: yn 1.42 ft · yc 0.98 ft · 3.1 ft/s · Fr 0.52 ⚠ freeboard`.
  * `withFlowName` is false where the hint sits right after the flow's own value.
  */
-export function flowHintText(flow: FlowResult, system: UnitSystem, show: HintQuantities, withFlowName: boolean, maximumProfileDepthM?: number): string {
+export function flowHintText(flow: FlowResult, system: UnitSystem, show: HintQuantities, withFlowName: boolean): string {
   const parts: string[] = [];
   const normal = flow.normal;
   if (normal === null) {
@@ -53,7 +59,13 @@ export function flowHintText(flow: FlowResult, system: UnitSystem, show: HintQua
   if (show.criticalDepth && flow.critical !== null) parts.push(`yc ${formatQuantity(flow.critical.depth_m, 'length', system)}`);
   if (normal !== null && show.velocity) parts.push(formatQuantity(normal.velocity_mps, 'velocity', system));
   if (normal !== null && show.froudeNumber) parts.push(`Fr ${formatRatio(normal.froudeNumber)}`);
-  if (show.maximumProfileDepth && maximumProfileDepthM !== undefined) parts.push(`max ${formatQuantity(maximumProfileDepthM, 'length', system)}`);
+  // The deepest water along the reach from the channel's profile, where backwater lifts it above normal depth by
+  // more than the band within which the profile counts as uniform (M1, S1, ...).
+  const profile = flow.profile;
+  if (show.maximumProfileDepth && profile !== undefined && profile !== null && (normal === null || profile.maximumDepth_m > normal.depth_m * (1 + NORMAL_DEPTH_BAND_RATIO))) {
+    const shaped = profile.profileClasses.filter((profileClass) => profileClass !== 'uniform');
+    parts.push(`max ${formatQuantity(profile.maximumDepth_m, 'length', system)}${shaped.length === 0 ? '' : ` (${shaped.join(', ')})`}`);
+  }
   const marker = STATUS_MARKERS[flow.status];
   const failed = failedCheckNames(flow.findings);
   const verdict = marker === '' ? '' : ` ${marker} ${failed.join(', ')}`;
@@ -92,6 +104,11 @@ export const HOVER_ROWS: readonly { readonly label: string; readonly cell: Cell 
   { label: 'Froude number', cell: (flow) => (flow.normal === null ? NOT_AVAILABLE : formatRatio(flow.normal.froudeNumber)) },
   { label: 'Regime, slope', cell: (flow) => `${flow.regime ?? NOT_AVAILABLE}, ${flow.slopeClass}` },
   { label: 'Critical slope', cell: (flow, _reach, system) => (flow.criticalSlope === null ? NOT_AVAILABLE : formatQuantity(flow.criticalSlope, 'slope', system)) },
+  {
+    label: 'Deepest water (profile)',
+    cell: (flow, _reach, system) => (flow.profile === undefined || flow.profile === null ? NOT_AVAILABLE : length(flow.profile.maximumDepth_m, system)),
+  },
+  { label: 'Profile', cell: (flow) => (flow.profile === undefined || flow.profile === null ? NOT_AVAILABLE : flow.profile.profileClasses.join(' → ')) },
   { label: 'Specific energy', cell: (flow, _reach, system) => length(flow.normal?.specificEnergy_m, system) },
   { label: 'Max. shear (γyS)', cell: (flow, _reach, system) => (flow.maxShear_Pa === null ? NOT_AVAILABLE : formatQuantity(flow.maxShear_Pa, 'shear', system)) },
   { label: 'Avg. shear (γRS)', cell: (flow, _reach, system) => (flow.averageShear_Pa === null ? NOT_AVAILABLE : formatQuantity(flow.averageShear_Pa, 'shear', system)) },

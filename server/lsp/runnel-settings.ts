@@ -19,7 +19,7 @@ export interface HintQuantities {
   readonly criticalDepth: boolean;
   readonly velocity: boolean;
   readonly froudeNumber: boolean;
-  /** The deepest water along the reach from a water-surface profile, where the analysis carries one. */
+  /** The deepest water along the reach from its channel's water-surface profile, where that is not normal depth. */
   readonly maximumProfileDepth: boolean;
 }
 

@@ -2,9 +2,12 @@
  * "Size this section": the smallest standard size of a reach's section that passes every check for every design
  * flow, or why none does. Open rectangles and trapezoids are sized by bottom width, in 0.5 ft steps (US) or
  * 0.1 m steps (SI); circular conduits by nominal pipe diameter. Every other dimension, the lining, the slope and
- * the criteria in force stay as they are. Each candidate is judged with the engine directly, by the same rules
- * the analysis applies (language/analysis/analyze-design.ts); a test keeps the two in step on every sample.
- * Pure: no LSP, no documents.
+ * the criteria in force stay as they are. Each candidate is judged with the engine directly, by the analysis'
+ * uniform-flow rules (language/analysis/analyze-design.ts); a test keeps the two in step on every sample. The
+ * analysis also judges over-topping and freeboard on the water-surface profile (the deeper of profile and normal
+ * depth) and reports hydraulic jumps, so a size that fails these uniform-flow checks fails the analysis too: the
+ * search here gives the candidates, in order, and the code action confirms the one it offers by re-analysing the
+ * edited design (sizing-verification.ts). Pure: no LSP, no documents.
  */
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
 import { usbrFreeboardCoefficientM, usbrFreeboardM } from '../../language/analysis/criteria-defaults.js';
@@ -86,10 +89,13 @@ export function sizingInputsOf(reach: ReachResult): SizingInputs {
   };
 }
 
-interface Candidate {
+/** A standard size, as written and in metres. */
+export interface SizeCandidate {
   readonly text: string;
   readonly valueM: number;
 }
+
+type Candidate = SizeCandidate;
 
 /** The candidate sizes of a shape in a unit system, smallest first; undefined with a reason when it has none. */
 export function candidateSizes(shape: SizingInputs['shape'], system: UnitSystem): { property: 'bottom width' | 'diameter'; dimensionKey: 'bottomWidth_m' | 'diameter_m'; candidates: Candidate[] } | { reason: string } {
@@ -111,18 +117,32 @@ export function candidateSizes(shape: SizingInputs['shape'], system: UnitSystem)
   return { reason: 'a parabolic section is set by its top width, which this action does not size' };
 }
 
-/** The smallest standard size passing every check for every flow, or why there is none. */
+/** The smallest standard size passing every uniform-flow check for every flow, or why there is none. */
 export function sizeSection(inputs: SizingInputs, system: UnitSystem): SizingResult {
+  return sizesPassingUniformChecks(inputs, system).next().value;
+}
+
+/**
+ * The standard sizes that pass every uniform-flow check, smallest first; when the list ends, why no (further) size
+ * passes. Lazy: each size is judged only when asked for.
+ */
+export function* sizesPassingUniformChecks(inputs: SizingInputs, system: UnitSystem): Generator<Extract<SizingResult, { ok: true }>, Extract<SizingResult, { ok: false }>> {
   if (!(inputs.slope > 0)) return { ok: false, reason: 'the bed does not fall, so there is no normal depth to size the section by' };
   if (inputs.flows.length === 0) return { ok: false, reason: 'no design flow reaches this reach' };
   const grid = candidateSizes(inputs.shape, system);
   if ('reason' in grid) return { ok: false, reason: grid.reason };
   const failuresBySize: FailedCheck[][] = [];
+  let passed = 0;
   for (const candidate of grid.candidates) {
     const failures = failedChecksWith(inputs, grid.dimensionKey, candidate.valueM);
-    if (failures.length === 0) return { ok: true, property: grid.property, dimensionKey: grid.dimensionKey, text: candidate.text, valueM: candidate.valueM };
-    failuresBySize.push(failures);
+    if (failures.length === 0) {
+      passed++;
+      yield { ok: true, property: grid.property, dimensionKey: grid.dimensionKey, text: candidate.text, valueM: candidate.valueM };
+    } else {
+      failuresBySize.push(failures);
+    }
   }
+  if (passed > 0) return { ok: false, reason: `no larger ${grid.property} up to ${grid.candidates[grid.candidates.length - 1]?.text ?? ''} passes the uniform-flow checks` };
   return { ok: false, reason: whyNoSizePasses(grid.property, grid.candidates, failuresBySize, inputs.shape === 'circle') };
 }
 

@@ -51,6 +51,7 @@ interface Manifest {
     readonly commands: readonly CommandContribution[];
     readonly menus: Readonly<Record<string, readonly MenuItem[]>>;
     readonly configuration: readonly { readonly title: string; readonly properties: Readonly<Record<string, SettingSchema>> }[];
+    readonly configurationDefaults?: Readonly<Record<string, Readonly<Record<string, unknown>>>>;
   };
 }
 
@@ -339,6 +340,10 @@ describe('manifest: settings', () => {
     for (const text of ['', '0.89 to 1.13', '0.8 to 1.2']) expect(band.test(text), text).toBe(true);
     for (const text of ['0.89', '0.89 1.13', '0.89 .. 1.13', '0.89 to 1.13 ft']) expect(band.test(text), text).toBe(false);
     expect(readText('language/runnel.langium')).toMatch(/'avoid' 'froude' low=NUMBER 'to' high=NUMBER/);
+  });
+
+  it('changes editor defaults only for Runnel files', () => {
+    for (const key of Object.keys(manifest.contributes.configurationDefaults ?? {})) expect(key).toBe(`[${LANGUAGE_ID}]`);
   });
 
   it('declares how it behaves in untrusted and virtual workspaces, with a reason where limited', () => {

@@ -187,7 +187,7 @@ export class DocumentHarness {
     for (const logged of loggedErrors) problems.push(`logged an error: ${logged.slice(0, 600)}`);
     for (const fault of containedFaults.splice(0)) problems.push(`a provider failed (the server would answer empty): ${fault.slice(0, 800)}`);
     const elapsedMs = performance.now() - started;
-    if (elapsedMs > PIPELINE_BOUND_MS) problems.push(`took ${elapsedMs.toFixed(0)} ms (bound ${PIPELINE_BOUND_MS} ms)`);
+    if (elapsedMs > PIPELINE_BOUND_MS) problems.push(`took ${elapsedMs.toFixed(0)} ms (bound ${PIPELINE_BOUND_MS} ms); largest number written: ${largestNumberWritten(text)}`);
     if (document === undefined || analysis === undefined) {
       // Fill the outcome with something inspectable; problems already says what failed.
       const fallback = await this.workspace.set(name, '');
@@ -272,6 +272,16 @@ export function rangeProblem(lines: TextDocument, range: Range): string | undefi
   }
   if (lines.offsetAt(range.start) > lines.offsetAt(range.end)) return 'start after end';
   return undefined;
+}
+
+/** The largest magnitude among the number literals of a text (0 when it has none). */
+export function largestNumberWritten(text: string): number {
+  let largest = 0;
+  for (const match of text.matchAll(/[+-]?(?:\d+(?:\.\d+)?|\.\d+)(?:[eE][+-]?\d+)?/g)) {
+    const value = Math.abs(Number(match[0]));
+    if (value > largest) largest = value;
+  }
+  return largest;
 }
 
 /** Dotted paths of numbers in the analysis that are NaN or infinite. */

@@ -64,6 +64,28 @@ export const KNOWN_DEFECTS: readonly KnownDefect[] = [
     },
   },
   {
+    id: 'analysis-profile-work-unbounded',
+    owner: 'analysis profiles (language/analysis/channel-profiles.ts with the profile engine)',
+    summary:
+      'The water-surface profile marches in steps of at most 100 m with a budget of 5 million steps, so its work and its list of points grow ' +
+      'with the reach length: `length 1e9 ft` in a sample takes about a minute to validate (the server stalls that long on a keystroke) ' +
+      'and 1e300 ft about 8 s. The work per document needs a bound that does not depend on the numbers written.',
+    matches: (problem) => {
+      const largest = /^took \d+ ms .*largest number written: ([\d.e+-]+|Infinity)/.exec(problem)?.[1];
+      return largest !== undefined && Number(largest) >= 1e6;
+    },
+    present: async () => {
+      const samples = sampleFiles();
+      const text = (samples['roadside-ditches.runnel'] ?? '').replace('length 450 ft', 'length 1e7 ft');
+      const { documents } = await buildWorkspace({ 'roadside-ditches.runnel': text, 'linings.runnel': samples['linings.runnel'] ?? '' });
+      const document = documents[0];
+      if (document === undefined) throw new Error('no document');
+      const points = analyzeDocument(document).channels.flatMap((channel) => channel.profiles ?? []).reduce((sum, profile) => sum + profile.points.length, 0);
+      // 3,000 km of reach in steps of at most 100 m: tens of thousands of points where a few hundred draw the profile.
+      return points > 20_000;
+    },
+  },
+  {
     id: 'report-drawing-overflow',
     owner: 'report renderer (language/report/longitudinal-svg.ts, rating-curve-svg.ts)',
     summary:

@@ -11,10 +11,8 @@
 import { describe, expect, it, vi } from 'vitest';
 import { OperationCancelled, type LangiumDocument } from 'langium';
 import type { CodeAction, Hover, InlayHint } from 'vscode-languageserver';
-import type { ChannelResult } from '../../language/analysis/model.js';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { containProvider, type ServerLog } from '../../server/lsp/error-containment.js';
-import { maximumProfileDepthM } from '../../server/lsp/profile-depth.js';
 import { DEFAULT_SETTINGS, parseSettings } from '../../server/lsp/runnel-settings.js';
 import { LspWorkspace } from './lsp-workspace.js';
 
@@ -137,6 +135,34 @@ describe('inlay hints', () => {
     expect(hints.filter((hint) => hint.position.line === 20).map((hint) => String(hint.label))).toEqual([expect.stringMatching(/^low: yn/)]);
   });
 
+  it('show the deepest water of a backwater profile, above normal depth, where the profile is not uniform', async () => {
+    // A narrow reach downstream of a wide one on a mild slope backs the water up (M1 curve, Chow (1959), Table 9-1).
+    const text = [
+      'design "backwater"',
+      'units US',
+      'section wide rectangle {\n  bottom width 20 ft\n  bank height 6 ft\n}',
+      'section narrow rectangle {\n  bottom width 4 ft\n  bank height 6 ft\n}',
+      'lining l {\n  n 0.02\n}',
+      'flows {\n  q = 100 cfs\n}',
+      'channel c {',
+      '  reach upper {\n    section wide\n    lining l\n    slope 0.1 %\n    length 2000 ft\n  }',
+      '  reach lower {\n    section narrow\n    lining l\n    slope 0.1 %\n    length 2000 ft\n  }',
+      '  outlet normal depth',
+      '}',
+      '',
+    ].join('\n');
+    const { workspace, document } = await open(text);
+    const hints = (await workspace.services.Runnel.lsp.InlayHintProvider?.getInlayHints(document, {
+      textDocument: { uri: document.uri.toString() },
+      range: { start: { line: 0, character: 0 }, end: { line: 100, character: 0 } },
+    })) as InlayHint[];
+    const upperLine = text.split('\n').findIndex((line) => line.startsWith('  reach upper'));
+    const upper = String(hints.find((hint) => hint.position.line === upperLine)?.label ?? '');
+    const match = /yn ([\d.]+) ft .* max ([\d.]+) ft \((M1[^)]*)\)/.exec(upper);
+    expect(match, upper).not.toBeNull();
+    expect(Number(match?.[2])).toBeGreaterThan(Number(match?.[1]));
+  });
+
   it('show only the hints of the requested lines', async () => {
     const { workspace, document } = await open(RECTANGLE_DESIGN);
     const hints = (await workspace.services.Runnel.lsp.InlayHintProvider?.getInlayHints(document, {
@@ -145,31 +171,6 @@ describe('inlay hints', () => {
     })) as InlayHint[];
     expect(hints.every((hint) => hint.position.line >= 20)).toBe(true);
     expect(hints.length).toBe(2);
-  });
-
-  it('the deepest profile depth within a reach, from the stations of its channel', () => {
-    const reach = (name: string, lengthM: number) => ({ name, length_m: lengthM, slope: 0.001, upstreamInvert_m: null, downstreamInvert_m: null }) as unknown;
-    const channel = {
-      name: 'c',
-      reaches: [reach('a', 100), reach('b', 200)],
-      outlet: null,
-      waterSurfaceProfiles: [
-        {
-          flow: 'q',
-          jumps: [],
-          points: [
-            { station_m: 0, depth_m: 0.5 },
-            { station_m: 90, depth_m: 0.7 },
-            { station_m: 150, depth_m: 1.4 },
-            { station_m: 290, depth_m: 0.9 },
-          ],
-        },
-      ],
-    } as unknown as ChannelResult;
-    expect(maximumProfileDepthM(channel, 0, 'q')).toBe(0.7);
-    expect(maximumProfileDepthM(channel, 1, 'q')).toBe(1.4);
-    expect(maximumProfileDepthM(channel, 1, 'other')).toBeUndefined();
-    expect(maximumProfileDepthM({ ...channel, waterSurfaceProfiles: undefined } as unknown as ChannelResult, 0, 'q')).toBeUndefined();
   });
 });
 

@@ -17,6 +17,7 @@ import type { CodeAction, TextEdit } from 'vscode-languageserver';
 import { analysisOf } from '../../server/lsp/document-analysis.js';
 import { BOTTOM_WIDTH_STEPS, failedChecks, NOMINAL_PIPE_DIAMETERS, sizingInputsOf } from '../../server/lsp/section-sizing.js';
 import { sectionGeometryFromResult } from '../../language/report/section-from-result.js';
+import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
 import { LspWorkspace, memoryUri, sampleTexts } from './lsp-workspace.js';
 
 const FOOT_M = 0.3048;
@@ -315,7 +316,22 @@ describe('size this section: the smallest standard size an independent computati
 });
 
 describe('sizing rules agree with the analysis', () => {
-  it('on every reach of every sample, the checks failed at the present size are the analysis findings', async () => {
+  /** The checks the sizing search judges: the analysis' uniform-flow checks (profile and jump checks are confirmed by re-analysis). */
+  const UNIFORM_FLOW_CODES: ReadonlySet<string> = new Set([
+    FINDING_CODES.overtopping,
+    FINDING_CODES.freeboardBelowRequired,
+    FINDING_CODES.supercriticalFlow,
+    FINDING_CODES.nearCriticalFlow,
+    FINDING_CODES.velocityAbovePermissible,
+    FINDING_CODES.shearAbovePermissible,
+    FINDING_CODES.velocityBelowSelfCleansing,
+    FINDING_CODES.conduitOverCapacity,
+    FINDING_CODES.conduitTwoDepthZone,
+    FINDING_CODES.noNormalDepth,
+    FINDING_CODES.depthSolveFailed,
+  ]);
+
+  it('on every reach of every sample: what the sizing rules fail, the analysis fails; what the analysis fails on normal depth, the sizing rules fail', async () => {
     const workspace = await LspWorkspace.create();
     const documents = await workspace.set(sampleTexts());
     let reaches = 0;
@@ -324,9 +340,14 @@ describe('sizing rules agree with the analysis', () => {
         for (const reach of channel.reaches) {
           const rebuilt = sectionGeometryFromResult(reach.section);
           if (!rebuilt.ok) throw new Error(rebuilt.reason);
-          const fromSizing = failedChecks(rebuilt.geometry, sizingInputsOf(reach)).map((failure) => `${failure.flow}:${failure.code}`).sort();
-          const fromAnalysis = reach.flows.flatMap((flow) => flow.findings.map((finding) => `${flow.flow}:${finding.code}`)).sort();
-          expect(fromSizing, `${channel.name}/${reach.name}`).toEqual(fromAnalysis);
+          const fromSizing = new Set(failedChecks(rebuilt.geometry, sizingInputsOf(reach)).map((failure) => `${failure.flow}:${failure.code}`));
+          const findings = reach.flows.flatMap((flow) => flow.findings.map((finding) => ({ key: `${flow.flow}:${finding.code}`, finding })));
+          const fromAnalysis = new Set(findings.map(({ key }) => key));
+          const judgedOnNormalDepth = findings.filter(({ finding }) => UNIFORM_FLOW_CODES.has(finding.code) && finding.data['judgedOn'] !== 'profile').map(({ key }) => key);
+          // Over-topping and freeboard judged on a deeper profile replace the normal-depth finding of the same code.
+          const overProfile = (key: string): boolean => fromAnalysis.has(key);
+          expect([...fromSizing].filter((key) => !overProfile(key)), `${channel.name}/${reach.name}: sizing fails what the analysis passes`).toEqual([]);
+          expect(judgedOnNormalDepth.filter((key) => !fromSizing.has(key)), `${channel.name}/${reach.name}: analysis fails what sizing passes`).toEqual([]);
           reaches++;
         }
       }
@@ -347,10 +368,11 @@ describe('applying the sizing edit', () => {
   });
 
   it('gives the reach its own copy when another reach shares the section, leaving the other reach as it was', async () => {
-    const text = (CASES[1]?.designText ?? '').replace('  outlet normal depth', '  reach other {\n    section s\n    lining l\n    slope 0.2 %\n    length 100 ft\n  }\n  outlet normal depth');
+    // The other reach is in another channel: its water neither backs up into reach r nor comes from it.
+    const text = `${CASES[1]?.designText ?? ''}channel d {\n  reach other {\n    section s\n    lining l\n    slope 0.2 %\n    length 100 ft\n  }\n  outlet normal depth\n}\n`;
     const workspace0 = await LspWorkspace.create();
     const [before] = await workspace0.set({ 'design.runnel': text });
-    const otherBefore = before === undefined ? undefined : analysisOf(before).channels[0]?.reaches[1];
+    const otherBefore = before === undefined ? undefined : analysisOf(before).channels[1]?.reaches[0];
     const { workspace, actions } = await codeActionsAtReach(text);
     expect(actions[0]?.title).toMatch(/^Give reach 'r' its own section 's-r'/);
     const edits = actions[0]?.edit?.changes?.[memoryUri('design.runnel')] ?? [];
@@ -361,10 +383,23 @@ describe('applying the sizing edit', () => {
     // The edit leaves a well-formed design: nothing unparsable, unresolved or named twice.
     const structural = new Set(['lexing-error', 'parsing-error', 'unknown-reference', 'duplicate-name']);
     expect(resized.diagnostics?.filter((diagnostic) => structural.has(String(diagnostic.code)))).toEqual([]);
-    const [sized, other] = analysis.channels[0]?.reaches ?? [];
+    const sized = analysis.channels[0]?.reaches[0];
+    const other = analysis.channels[1]?.reaches[0];
     expect(sized?.section.name).toBe('s-r');
     expect(sized?.status).toBe('pass');
     expect(other?.section.name).toBe('s');
     expect(other?.flows[0]?.normal?.depth_m).toBe(otherBefore?.flows[0]?.normal?.depth_m);
+  });
+
+  it('offers no size when the profile, not the size, fails: backwater from a narrower reach downstream over-tops this one', async () => {
+    const c = CASES[1] as SizingCase;
+    const text = c.designText.replace('  outlet normal depth', '  reach other {\n    section s\n    lining l\n    slope 0.2 %\n    length 100 ft\n  }\n  outlet normal depth');
+    // Independently: the 1 ft wide reach downstream runs deeper than the 3 ft bank in uniform flow, and the water
+    // surface is continuous at the junction, so reach r over-tops at its downstream end whatever its own width.
+    const otherDepth = normalDepth(c.shapeAt(1 * FOOT_M), c);
+    expect(otherDepth).toBeGreaterThan(c.bankM ?? Infinity);
+    const { actions } = await codeActionsAtReach(text);
+    expect(actions[0]?.edit).toBeUndefined();
+    expect(actions[0]?.disabled?.reason).toMatch(/pass the uniform-flow checks from [\d.]+ ft to [\d.]+ ft still fail the analysis of the whole channel \(over-topping\)/);
   });
 });

@@ -1,0 +1,117 @@
+/**
+ * CLI cold start beside bare Node, in the same run: `node -e 0`, `node dist/runnel.cjs --help`, and
+ * `node dist/runnel.cjs check` of one small sample (the roadside ditches with the shared linings), each started as a
+ * fresh process RUNS times in interleaved order (so drift in machine load falls on all three alike), after one
+ * untimed start of each to warm the file cache. Reports the median and fastest wall-clock time and each median's
+ * ratio to bare Node's. Target (issue 8): the CLI within 4x of bare Node.
+ *
+ * The bundle is dist/runnel.cjs (`npm run build`) when it exists, else one built now from the sources with the
+ * options of scripts/build.mjs into a temporary folder; RUNNEL_CLI_BUNDLE=path picks another. RUNNEL_BENCH_RUNS=n
+ * changes the number of timed starts (default 21).
+ * Run with `npm run bench` (all bench modules) or `npm run bench -- cold-start`.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { build } from 'esbuild';
+
+const ROOT = join(fileURLToPath(import.meta.url), '..', '..');
+const DEFAULT_RUNS = 21;
+const TARGET_RATIO = 4;
+
+interface Subject {
+  readonly name: string;
+  readonly args: readonly string[];
+  /** Exit statuses that count as a normal run (check exits 1 when the sample has error findings). */
+  readonly okStatuses: readonly number[];
+}
+
+export interface ColdStartRow {
+  readonly name: string;
+  readonly medianMs: number;
+  readonly fastestMs: number;
+  readonly ratioToNode: number;
+}
+
+export async function run(): Promise<void> {
+  const runs = Math.max(3, Number(process.env['RUNNEL_BENCH_RUNS'] ?? DEFAULT_RUNS) || DEFAULT_RUNS);
+  const { bundle, cleanUp, origin } = await cliBundle();
+  try {
+    const sample = join(ROOT, 'samples', 'roadside-ditches.runnel');
+    const linings = join(ROOT, 'samples', 'linings.runnel');
+    const subjects: Subject[] = [
+      { name: 'node -e 0', args: ['-e', '0'], okStatuses: [0] },
+      { name: 'runnel --help', args: [bundle, '--help'], okStatuses: [0] },
+      { name: 'runnel check (one sample + linings)', args: [bundle, 'check', sample, linings], okStatuses: [0, 1] },
+    ];
+    for (const subject of subjects) startOnce(subject); // warm the file cache, untimed
+    const times = new Map<string, number[]>(subjects.map((subject) => [subject.name, []]));
+    for (let index = 0; index < runs; index++) {
+      for (const subject of subjects) times.get(subject.name)?.push(startOnce(subject));
+    }
+    const nodeMedian = median(times.get('node -e 0') ?? []);
+    const rows: ColdStartRow[] = subjects.map((subject) => {
+      const samples = times.get(subject.name) ?? [];
+      const medianMs = median(samples);
+      return { name: subject.name, medianMs, fastestMs: Math.min(...samples), ratioToNode: medianMs / nodeMedian };
+    });
+    console.log(`CLI cold start: ${runs} starts each, interleaved; ${cpus().length} CPUs, load average ${loadavg()[0]?.toFixed(1)} at the end; bundle: ${origin}`);
+    console.log('');
+    console.log('| command | median, ms | fastest, ms | median / node -e 0 |');
+    console.log('| --- | ---: | ---: | ---: |');
+    for (const row of rows) console.log(`| ${row.name} | ${row.medianMs.toFixed(0)} | ${row.fastestMs.toFixed(0)} | ${row.ratioToNode.toFixed(2)} |`);
+    console.log('');
+    for (const row of rows.slice(1)) {
+      console.log(`${row.name}: ${row.ratioToNode.toFixed(2)}x bare Node start (target within ${TARGET_RATIO}x): ${row.ratioToNode <= TARGET_RATIO ? 'met' : 'NOT met'}`);
+    }
+  } finally {
+    cleanUp();
+  }
+}
+
+/** One start of the subject, wall-clock milliseconds; throws if it fails. */
+function startOnce(subject: Subject): number {
+  const started = performance.now();
+  const result = spawnSync(process.execPath, subject.args, { cwd: ROOT, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+  const elapsedMs = performance.now() - started;
+  if (result.error !== undefined || !subject.okStatuses.includes(result.status ?? -1)) {
+    throw new Error(`${subject.name} failed (status ${String(result.status)}): ${result.error?.message ?? ''}${result.stderr.slice(0, 600)}`);
+  }
+  return elapsedMs;
+}
+
+function median(values: readonly number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const middle = Math.floor(sorted.length / 2);
+  return sorted.length % 2 === 1 ? (sorted[middle] ?? Number.NaN) : ((sorted[middle - 1] ?? 0) + (sorted[middle] ?? 0)) / 2;
+}
+
+async function cliBundle(): Promise<{ bundle: string; cleanUp: () => void; origin: string }> {
+  const given = process.env['RUNNEL_CLI_BUNDLE'];
+  if (given !== undefined && given !== '') return { bundle: given, cleanUp: () => undefined, origin: given };
+  const shipped = join(ROOT, 'dist', 'runnel.cjs');
+  if (existsSync(shipped)) {
+    const ageMinutes = (Date.now() - statSync(shipped).mtimeMs) / 60_000;
+    return { bundle: shipped, cleanUp: () => undefined, origin: `dist/runnel.cjs (built ${ageMinutes.toFixed(0)} min ago; run npm run build first for current figures)` };
+  }
+  const folder = mkdtempSync(join(tmpdir(), 'runnel-cold-start-'));
+  const outfile = join(folder, 'runnel.cjs');
+  // The options of scripts/build.mjs for the CLI entry.
+  await build({
+    entryPoints: [join(ROOT, 'server', 'cli.ts')],
+    outfile,
+    bundle: true,
+    format: 'cjs',
+    platform: 'node',
+    target: 'node20',
+    sourcemap: true,
+    logLevel: 'warning',
+    define: { 'import.meta.url': 'importMetaUrl' },
+    banner: { js: "#!/usr/bin/env node\nconst importMetaUrl = require('url').pathToFileURL(__filename).href;" },
+  });
+  return { bundle: outfile, cleanUp: () => rmSync(folder, { recursive: true, force: true }), origin: 'built now from the sources (no dist/runnel.cjs)' };
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) await run();
