@@ -7,7 +7,7 @@ export { renderReportMarkdown, renderResultsTableMarkdown, markdownTable, type R
 export { renderCrossSectionSvg, type CrossSectionOptions } from './cross-section-svg.js';
 export { renderRatingCurveSvg, criticalDischargeM3s, type RatingCurveOptions } from './rating-curve-svg.js';
 export { renderLongitudinalSvg, placeReaches, bedElevationAtM, type LongitudinalOptions, type ReachPlacement } from './longitudinal-svg.js';
-export type { WaterSurfaceProfile, WaterSurfaceProfilePoint, HydraulicJumpMarker, ChannelWithProfiles } from './profile-overlay.js';
+export { drawnProfilesOf, type DrawnProfile, type DrawnProfilePoint, type DrawnJump } from './profile-overlay.js';
 export { sectionGeometryFromResult, describeSection, SECTION_DIMENSION_KEYS, type SectionRebuild } from './section-from-result.js';
 export { escapeHtml, escapeMarkdownInline } from './escape.js';
 export { REPORT_STYLESHEET } from './report-styles.js';

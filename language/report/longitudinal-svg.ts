@@ -1,17 +1,19 @@
 /**
  * The longitudinal view of one channel: distance from its upstream end against elevation, with the bed, the bank
  * tops (or conduit crowns), and for each design flow its normal-depth line (solid) and critical-depth line
- * (dashed) over every reach, reach boundaries and names, and the outlet condition. When the channel carries
- * computed water-surface profiles (profile-overlay.ts) they are drawn over these lines with any hydraulic jumps.
+ * (dashed) over every reach, reach boundaries and names, and the outlet condition; over them the computed
+ * water surface of each flow (ChannelResult.profiles, through profile-overlay.ts) with its hydraulic jumps.
  * Elevations come from the reach inverts where given; otherwise the bed is built from slopes and lengths and
- * plotted relative to the outlet invert, which the axis label says.
+ * plotted relative to the outlet invert, which the axis label says. The bed is placed by the same function the
+ * profiles were computed on (language/analysis/channel-bed.ts), so the water surface stands on the drawn bed.
  */
+import { channelBed } from '../analysis/channel-bed.js';
 import type { ChannelResult, ReachResult } from '../analysis/model.js';
 import type { UnitSystem } from '../units/units.js';
 import { escapeHtml, truncateLabel } from './escape.js';
 import { flowColourClass } from './flow-colours.js';
 import { displayUnit, displayValue, formatElevation, formatSignificant } from './format.js';
-import { waterSurfaceProfilesOf, type ChannelWithProfiles } from './profile-overlay.js';
+import { drawnProfilesOf } from './profile-overlay.js';
 import { DRAWING_WORDS } from './report-wording.js';
 import { linearScale, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, type PlotArea } from './svg-scale.js';
 
@@ -39,55 +41,27 @@ export interface ReachPlacement {
 }
 
 /**
- * Places every reach along the channel. Inverts given in the design are used as they are (a difference at a
- * junction is a drop); a missing invert continues from the neighbouring reach by slope x length. With no invert
- * anywhere the outlet invert is taken as zero and `datum` is 'relative-to-outlet'.
+ * Places every reach along the channel (channel-bed.ts): inverts given in the design are used as they are (a
+ * difference at a junction is a drop); a reach given only a slope continues the bed of the reach below it. With no
+ * invert anywhere the outlet invert is taken as zero and `datum` is 'relative-to-outlet'.
  */
 export function placeReaches(channel: ChannelResult): { readonly placements: readonly ReachPlacement[]; readonly datum: 'absolute' | 'relative-to-outlet' } {
   const reaches = channel.reaches;
   const lengths = reaches.map((reach) => (Number.isFinite(reach.length_m) && reach.length_m > 0 ? reach.length_m : 0));
-  const slopes = reaches.map((reach) => (Number.isFinite(reach.slope) ? reach.slope : 0));
-  const upstream = reaches.map((reach) => finiteOrNaN(reach.upstreamInvert_m));
-  const downstream = reaches.map((reach) => finiteOrNaN(reach.downstreamInvert_m));
-  const anyInvert = [...upstream, ...downstream].some(Number.isFinite);
-  if (!anyInvert && reaches.length > 0) downstream[reaches.length - 1] = 0;
-  // Fill each reach from its own other end, then from its neighbours, until nothing changes.
-  for (let pass = 0; pass < 2 * reaches.length + 2; pass++) {
-    let changed = false;
-    for (let index = 0; index < reaches.length; index++) {
-      const drop = slopes[index]! * lengths[index]!;
-      if (Number.isNaN(upstream[index]!) && Number.isFinite(downstream[index]!)) {
-        upstream[index] = downstream[index]! + drop;
-        changed = true;
-      }
-      if (Number.isNaN(downstream[index]!) && Number.isFinite(upstream[index]!)) {
-        downstream[index] = upstream[index]! - drop;
-        changed = true;
-      }
-      if (Number.isNaN(upstream[index]!) && index > 0 && Number.isFinite(downstream[index - 1]!)) {
-        upstream[index] = downstream[index - 1]!;
-        changed = true;
-      }
-      if (Number.isNaN(downstream[index]!) && index + 1 < reaches.length && Number.isFinite(upstream[index + 1]!)) {
-        downstream[index] = upstream[index + 1]!;
-        changed = true;
-      }
-    }
-    if (!changed) break;
-  }
+  const bed = channelBed(reaches);
   let stationM = 0;
   const placements = reaches.map((reach, index) => {
     const placement: ReachPlacement = {
       reach,
       startStationM: stationM,
-      endStationM: stationM + lengths[index]!,
-      upstreamBedM: Number.isFinite(upstream[index]!) ? upstream[index]! : 0,
-      downstreamBedM: Number.isFinite(downstream[index]!) ? downstream[index]! : 0,
+      endStationM: stationM + (lengths[index] ?? 0),
+      upstreamBedM: bed.upstreamInvertsM[index] ?? 0,
+      downstreamBedM: bed.downstreamInvertsM[index] ?? 0,
     };
-    stationM += lengths[index]!;
+    stationM += lengths[index] ?? 0;
     return placement;
   });
-  return { placements, datum: anyInvert ? 'absolute' : 'relative-to-outlet' };
+  return { placements, datum: bed.datum };
 }
 
 /** Bed elevation at a station, m (linear within a reach; the first reach containing the station). */
@@ -103,7 +77,7 @@ export function bedElevationAtM(placements: readonly ReachPlacement[], stationM:
 }
 
 /** The longitudinal view of a channel as an SVG fragment; see the module comment. */
-export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: UnitSystem, options: LongitudinalOptions): string {
+export function renderLongitudinalSvg(channel: ChannelResult, system: UnitSystem, options: LongitudinalOptions): string {
   const title = `Longitudinal view of channel ${channel.name}`;
   const { placements, datum } = placeReaches(channel);
   const last = placements[placements.length - 1];
@@ -111,7 +85,7 @@ export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: Unit
   if (last === undefined || !(totalLengthM > 0)) {
     return renderNotDrawnSvg({ id: options.id, kind: 'longitudinal', title, reason: 'the channel has no reach with a length' });
   }
-  const profiles = waterSurfaceProfilesOf(channel);
+  const profiles = drawnProfilesOf(channel);
 
   // Flow names in order, with their colours.
   const flowNames: string[] = [];
@@ -128,12 +102,7 @@ export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: Unit
       for (const top of tops) elevations.push(bed + top);
     }
   }
-  for (const profile of profiles) {
-    for (const point of profile.points) {
-      const bed = bedElevationAtM(placements, point.station_m);
-      if (bed !== undefined) elevations.push(bed + point.depth_m);
-    }
-  }
+  for (const profile of profiles) for (const point of profile.points) elevations.push(point.waterSurface_m);
   if (channel.outlet?.kind === 'water-level' && datum === 'absolute' && Number.isFinite(channel.outlet.elevation_m)) elevations.push(channel.outlet.elevation_m);
   const finiteElevations = elevations.filter(Number.isFinite);
   let lowM = Math.min(...finiteElevations);
@@ -198,19 +167,13 @@ export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: Unit
     parts.push(segmentsPath(`normal-line ${colour}`, 'normal-depth-line', flowName, placements, depthOf('normal'), X, Y));
   }
 
-  // Computed water-surface profiles and jumps, when the channel carries them.
+  // The computed water surface of each flow, and its jumps.
   for (const profile of profiles) {
     const colour = colourOf(profile.flow);
-    const points = profile.points
-      .map((point) => {
-        const bed = bedElevationAtM(placements, point.station_m);
-        return bed === undefined ? undefined : { x: X(point.station_m), y: Y(bed + point.depth_m) };
-      })
-      .filter((point): point is { x: number; y: number } => point !== undefined);
+    const points = profile.points.map((point) => ({ x: X(point.station_m), y: Y(point.waterSurface_m) }));
     if (points.length > 1) parts.push(`<path class="profile-line ${colour}" data-role="water-surface-profile" data-flow="${escapeHtml(profile.flow)}" d="${pathThrough(points, false)}"/>`);
     for (const jump of profile.jumps) {
-      const bed = bedElevationAtM(placements, jump.station_m);
-      if (bed === undefined) continue;
+      const bed = jump.invert_m;
       const x = X(jump.station_m);
       const yLow = Y(bed + jump.upstreamDepth_m);
       const yHigh = Y(bed + jump.downstreamDepth_m);
@@ -249,17 +212,18 @@ export function renderLongitudinalSvg(channel: ChannelWithProfiles, system: Unit
   const fixedRows: string[] = [
     `<path class="bed-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.bed)}</text>`,
     `<path class="bank-top-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.bankTopOrCrown)}</text>`,
-    ...(profiles.length > 0
-      ? [
-          `<path class="profile-line" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.computedWaterSurface)}</text>`,
-          `<path class="jump-legend" d="M11 2 V-10 M7 -4 L11 -10 L15 -4"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text>`,
-        ]
+    ...(profiles.some((profile) => profile.jumps.length > 0)
+      ? [`<path class="jump-legend" d="M11 2 V-10 M7 -4 L11 -10 L15 -4"/><text class="fig-label" x="30" y="0">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text>`]
       : []),
   ];
+  const profiledFlows = new Set(profiles.map((profile) => profile.flow));
   const flowRows = flowNames.map(
     (flowName) =>
       `<path class="normal-line ${colourOf(flowName)}" d="M0 -4 H22"/><text class="fig-label" x="30" y="0">${escapeHtml(`${truncateLabel(flowName, 18)}: ${DRAWING_WORDS.normalDepthLine}`)}</text>` +
-      `<path class="critical-line ${colourOf(flowName)}" d="M210 -4 H232"/><text class="fig-label" x="240" y="0">${escapeHtml(DRAWING_WORDS.criticalDepthLine)}</text>`,
+      `<path class="critical-line ${colourOf(flowName)}" d="M210 -4 H232"/><text class="fig-label" x="240" y="0">${escapeHtml(DRAWING_WORDS.criticalDepthLine)}</text>` +
+      (profiledFlows.has(flowName)
+        ? `<path class="profile-line ${colourOf(flowName)}" d="M340 -4 H362"/><text class="fig-label" x="370" y="0">${escapeHtml(DRAWING_WORDS.computedWaterSurface)}</text>`
+        : ''),
   );
   const legendTop = PLOT.top + PLOT.height + LEGEND_TOP_GAP;
   fixedRows.forEach((row, index) => {
@@ -318,6 +282,3 @@ function isPositiveFinite(value: number | null | undefined): value is number {
   return value !== null && value !== undefined && Number.isFinite(value) && value > 0;
 }
 
-function finiteOrNaN(value: number | null): number {
-  return value !== null && Number.isFinite(value) ? value : Number.NaN;
-}

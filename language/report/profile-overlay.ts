@@ -1,54 +1,64 @@
 /**
- * The optional input by which a computed water-surface profile reaches the longitudinal view. The analysis model
- * does not carry profiles yet; when it does, `ChannelResult` gains the optional field below
- * (`waterSurfaceProfiles`) and the longitudinal view draws it with no other change. Stations are measured along
- * the channel from the upstream end of its first reach, over the reaches in order (the same stations the view
- * uses); depths are measured vertically from the bed at that station. All SI.
+ * The computed water-surface profiles of a channel as the longitudinal view draws them, read from the analysis
+ * model (ChannelResult.profiles). Stations are measured along the channel from the upstream end of its first
+ * reach, as the view places reaches; elevations are on the same datum as the view's bed (language/analysis/
+ * channel-bed.ts builds both). Only well-formed values are kept (finite numbers, depths >= 0), so a damaged or
+ * hand-made model never draws NaN.
  */
-import type { ChannelResult } from '../analysis/model.js';
+import type { ChannelResult, HydraulicJumpResult, ProfilePointResult } from '../analysis/model.js';
 
-export interface WaterSurfaceProfilePoint {
-  /** Distance from the channel's upstream end, m. */
+export interface DrawnProfilePoint {
   readonly station_m: number;
-  /** Depth of flow above the bed at that station, m. */
-  readonly depth_m: number;
+  readonly waterSurface_m: number;
 }
 
-export interface HydraulicJumpMarker {
-  /** Where the jump stands, m from the channel's upstream end. */
+export interface DrawnJump {
   readonly station_m: number;
+  readonly reach: string;
   /** Depth just upstream of the jump (supercritical), m. */
   readonly upstreamDepth_m: number;
-  /** Sequent depth just downstream of the jump (subcritical), m. */
+  /** Depth just downstream of the jump (subcritical), m. */
   readonly downstreamDepth_m: number;
+  /** Bed elevation under the jump, m. */
+  readonly invert_m: number;
 }
 
-export interface WaterSurfaceProfile {
+export interface DrawnProfile {
   /** The design flow, by name as in FlowResult.flow. */
   readonly flow: string;
-  /** Points in order of station. */
-  readonly points: readonly WaterSurfaceProfilePoint[];
-  readonly jumps: readonly HydraulicJumpMarker[];
+  readonly points: readonly DrawnProfilePoint[];
+  readonly jumps: readonly DrawnJump[];
 }
 
-/** A channel that may carry computed profiles. */
-export interface ChannelWithProfiles extends ChannelResult {
-  readonly waterSurfaceProfiles?: readonly WaterSurfaceProfile[];
-}
-
-/** The profiles a channel carries, keeping only well-formed points and jumps (finite numbers, depth >= 0). */
-export function waterSurfaceProfilesOf(channel: ChannelWithProfiles): readonly WaterSurfaceProfile[] {
-  const profiles = channel.waterSurfaceProfiles;
+/** The computed profiles of a channel that have points to draw, with malformed points and jumps left out. */
+export function drawnProfilesOf(channel: ChannelResult): readonly DrawnProfile[] {
+  const profiles = channel.profiles;
   if (!Array.isArray(profiles)) return [];
-  return profiles
-    .filter((profile): profile is WaterSurfaceProfile => typeof profile === 'object' && profile !== null && typeof profile.flow === 'string')
-    .map((profile) => ({
-      flow: profile.flow,
-      points: (Array.isArray(profile.points) ? profile.points : []).filter(
-        (point) => Number.isFinite(point.station_m) && Number.isFinite(point.depth_m) && point.depth_m >= 0,
-      ),
-      jumps: (Array.isArray(profile.jumps) ? profile.jumps : []).filter(
-        (jump) => Number.isFinite(jump.station_m) && Number.isFinite(jump.upstreamDepth_m) && Number.isFinite(jump.downstreamDepth_m),
-      ),
-    }));
+  const drawn: DrawnProfile[] = [];
+  for (const profile of profiles) {
+    if (typeof profile !== 'object' || profile === null || typeof profile.flow !== 'string' || !Array.isArray(profile.points)) continue;
+    const points = (profile.points as readonly ProfilePointResult[]).filter(
+      (point: ProfilePointResult) => Number.isFinite(point.station_m) && Number.isFinite(point.waterSurface_m) && Number.isFinite(point.invert_m) && Number.isFinite(point.depth_m) && point.depth_m >= 0,
+    );
+    if (points.length === 0) continue;
+    const jumps: DrawnJump[] = [];
+    const jumpList: readonly HydraulicJumpResult[] = Array.isArray(profile.jumps) ? (profile.jumps as readonly HydraulicJumpResult[]) : [];
+    for (const jump of jumpList) {
+      if (!(Number.isFinite(jump.station_m) && Number.isFinite(jump.upstreamDepth_m) && Number.isFinite(jump.downstreamDepth_m))) continue;
+      // The bed under the jump: from the computed point of its reach nearest to it.
+      let invertM: number | undefined;
+      let nearestM = Number.POSITIVE_INFINITY;
+      for (const point of points) {
+        const distanceM = Math.abs(point.station_m - jump.station_m);
+        if (point.reach === jump.reach && distanceM < nearestM) {
+          nearestM = distanceM;
+          invertM = point.invert_m;
+        }
+      }
+      if (invertM === undefined) continue;
+      jumps.push({ station_m: jump.station_m, reach: jump.reach, upstreamDepth_m: jump.upstreamDepth_m, downstreamDepth_m: jump.downstreamDepth_m, invert_m: invertM });
+    }
+    drawn.push({ flow: profile.flow, points: points.map((point) => ({ station_m: point.station_m, waterSurface_m: point.waterSurface_m })), jumps });
+  }
+  return drawn;
 }

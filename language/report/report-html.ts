@@ -15,7 +15,7 @@ import { designFlowOrder, flowColourClass } from './flow-colours.js';
 import { formatTimestampUtc } from './format.js';
 import { renderLongitudinalSvg } from './longitudinal-svg.js';
 import { renderRatingCurveSvg } from './rating-curve-svg.js';
-import { buildReachFacts, buildReachFlowTable, buildSummaryTable, findingLineText, findingPlaceText, lineText, tallyText, type ReachFlowTable, type TextTable } from './results-table.js';
+import { buildProfileSummary, buildReachFacts, buildReachFlowTable, buildSummaryTable, findingLineText, findingPlaceText, lineText, tallyText, type ProfileSummary, type ReachFlowTable, type TextTable } from './results-table.js';
 import { REPORT_STYLESHEET } from './report-styles.js';
 import { DRAWING_WORDS, REPORT_WORDS, SEVERITY_WORDS, STATUS_WORDS } from './report-wording.js';
 import { sha256Base64 } from './sha256.js';
@@ -140,6 +140,8 @@ export function renderReportHtml(analysis: DesignAnalysis, options: ReportHtmlOp
       const scaleText = exaggeration !== undefined ? `; ${DRAWING_WORDS.verticalExaggeration(exaggeration)}` : '';
       body.push(figure(svg, `${REPORT_WORDS.longitudinalCaption} of channel ${channel.name}${scaleText}.`, 'channel-figure'));
     }
+    const profileSummary = buildProfileSummary(channel, system);
+    if (profileSummary !== null) body.push(profileTable(profileSummary, flowOrder));
     channel.reaches.forEach((reach, reachIndex) => {
       body.push(`<article class="reach" id="reach-${channelIndex}-${reachIndex}" data-status="${reach.status}">`);
       body.push(`<h3><span class="number">${number}.${reachIndex + 1}</span>${escapeHtml(`${REPORT_WORDS.reachHeading} ${reach.name}`)} ${statusChip(reach.status)}</h3>`);
@@ -225,6 +227,26 @@ function renderFinding(finding: Finding): string {
 function factsTable(table: TextTable): string {
   const rows = table.rows.map(([label, value]) => `<tr><th scope="row">${escapeHtml(label ?? '')}</th><td>${escapeHtml(value ?? '')}</td></tr>`).join('');
   return `<table class="facts"><tbody>${rows}</tbody></table>`;
+}
+
+function profileTable(summary: ProfileSummary, flowOrder: readonly string[]): string {
+  const head = summary.headings.map((heading, index) => `<th scope="col"${summary.numeric[index] ? ' class="num"' : ''}>${escapeHtml(heading)}</th>`).join('');
+  const rows = summary.rows
+    .map((row, rowIndex) => {
+      const flowName = summary.rowFlows[rowIndex] ?? '';
+      const cells = row.map((cell, index) =>
+        index === 0
+          ? `<td class="name"><span class="swatch ${flowColourClass(flowName, flowOrder, 0)}" aria-hidden="true"></span>${escapeHtml(cell)}</td>`
+          : `<td${summary.numeric[index] ? ' class="num"' : index === 1 ? ' class="name"' : ''}>${escapeHtml(cell)}</td>`,
+      );
+      return `<tr>${cells.join('')}</tr>`;
+    })
+    .join('');
+  const notes = summary.notes.length === 0 ? '' : `<ul class="flow-notes" data-role="profile-notes">${summary.notes.map((note) => `<li>${escapeHtml(note)}</li>`).join('')}</ul>`;
+  return (
+    `<div class="profile-summary"><h3>${escapeHtml(REPORT_WORDS.profileHeading)}</h3><p class="channel-description">${escapeHtml(REPORT_WORDS.profileIntro)}</p>` +
+    `<div class="table-wrap"><table class="results" data-role="profile-table"><thead><tr>${head}</tr></thead><tbody>${rows}</tbody></table></div>${notes}</div>`
+  );
 }
 
 function flowTable(table: ReachFlowTable, flowClasses: readonly string[]): string {

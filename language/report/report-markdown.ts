@@ -6,7 +6,7 @@
 import type { DesignAnalysis } from '../analysis/model.js';
 import { escapeMarkdownInline } from './escape.js';
 import { formatTimestampUtc } from './format.js';
-import { buildReachFacts, buildReachFlowTable, buildSummaryTable, findingLineText, findingPlaceText, lineText, tallyText, type TextTable } from './results-table.js';
+import { buildProfileSummary, buildReachFacts, buildReachFlowTable, buildSummaryTable, findingLineText, findingPlaceText, lineText, tallyText, type TextTable } from './results-table.js';
 import { REPORT_WORDS, SEVERITY_WORDS } from './report-wording.js';
 
 export interface ReportMarkdownOptions {
@@ -63,6 +63,11 @@ export function renderReportMarkdown(analysis: DesignAnalysis, options: ReportMa
   for (const channel of analysis.channels) {
     lines.push(`## ${REPORT_WORDS.channelHeading} ${escapeMarkdownInline(channel.name)}`, '');
     if (channel.description) lines.push(escapeMarkdownInline(channel.description), '');
+    const profileSummary = buildProfileSummary(channel, system);
+    if (profileSummary !== null) {
+      lines.push(`### ${REPORT_WORDS.profileHeading}`, '', REPORT_WORDS.profileIntro, '', markdownTable(profileSummary), '');
+      if (profileSummary.notes.length > 0) lines.push(...profileSummary.notes.map((note) => `- ${escapeMarkdownInline(note)}`), '');
+    }
     for (const reach of channel.reaches) {
       lines.push(`### ${REPORT_WORDS.reachHeading} ${escapeMarkdownInline(reach.name)}`, '');
       lines.push(markdownTable(buildReachFacts(reach, system)), '');

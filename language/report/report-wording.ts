@@ -54,6 +54,8 @@ export const REPORT_WORDS = {
   libraryNote: 'This file is a library of shared linings and sections: it has no channels to check.',
   noChannels: 'This design has no channels to check yet.',
   incompleteHeading: 'Reaches not analysed',
+  profileHeading: 'Water-surface profile',
+  profileIntro: 'The computed water surface along the channel at each design flow; stations are distances from the head of the channel.',
   notAnalysedWord: 'not analysed',
 } as const;
 
@@ -99,6 +101,21 @@ export const QUANTITY_WORDS = {
   froudeBand: 'Froude numbers to avoid',
   minVelocity: 'Self-cleansing velocity (minimum)',
   note: 'Note',
+  profileClasses: 'Profile',
+  deepestWater: 'Deepest water',
+  atStation: 'At station',
+  leastFreeboard: 'Least freeboard',
+  aboveBank: 'Above the bank (stations)',
+  noneWord: 'none',
+} as const;
+
+/** The sentences under the profile table: jumps and profiles not (fully) computed. */
+export const PROFILE_WORDS = {
+  jump: (flow: string, where: string, from: string, froude: string, to: string, kind: string, swept: boolean): string =>
+    `${flow}: hydraulic jump ${where}, from ${from} (Froude number ${froude}) to ${to}; ${kind}${swept ? '; swept out of the reach that should hold it' : ''}.`,
+  surcharged: (flow: string, reach: string, station: string): string =>
+    `${flow}: the water fills the conduit of reach ${reach} near station ${station}; the profile covers only the reaches below it.`,
+  notComputed: (flow: string, why: string): string => `${flow}: no water-surface profile (${why}).`,
 } as const;
 
 /** Drawing legends and labels. */

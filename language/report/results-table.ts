@@ -3,7 +3,8 @@
  * Markdown report, so the two always show the same rows, headings, rounding and wording. Cells are unescaped
  * text: each renderer escapes them for its own format.
  */
-import type { CheckStatus, DesignAnalysis, Finding, FlowResult, ReachResult, ResolvedCriteria, SourceLocation } from '../analysis/model.js';
+import type { ChannelResult, CheckStatus, DesignAnalysis, Finding, FlowResult, ReachResult, ResolvedCriteria, SourceLocation } from '../analysis/model.js';
+import { describeJumpType } from '../hydraulics/index.js';
 import type { UnitSystem } from '../units/units.js';
 import {
   displayUnit,
@@ -15,7 +16,7 @@ import {
   formatSignificant,
   MISSING_VALUE,
 } from './format.js';
-import { QUANTITY_WORDS, REPORT_WORDS, SEVERITY_RANK, STATUS_WORDS } from './report-wording.js';
+import { PROFILE_WORDS, QUANTITY_WORDS, REPORT_WORDS, SEVERITY_RANK, STATUS_WORDS } from './report-wording.js';
 import { describeSection } from './section-from-result.js';
 
 export interface TextTable {
@@ -192,6 +193,86 @@ export function buildReachFlowTable(reach: ReachResult, system: UnitSystem): Rea
   const numeric = headings.map((_, index) => index >= 2);
   const notes = flows.filter((flow) => flow.normalDepthNote).map((flow) => ({ flow: flow.flow, note: flow.normalDepthNote ?? '' }));
   return { headings, numeric, rows, notes };
+}
+
+/** The profile table of a channel with the sentences that go under it. */
+export interface ProfileSummary extends TextTable {
+  /** Flow name of each row, for a colour key in HTML. */
+  readonly rowFlows: readonly string[];
+  readonly notes: readonly string[];
+}
+
+/**
+ * One row per flow and reach of the channel's computed water-surface profiles: the profile classes, the deepest
+ * water and where, normal depth beside it, the least freeboard and where, and where the water stands above the
+ * bank; under it the jumps and the flows whose profile is missing or partial. Null when the channel carries no
+ * profiles.
+ */
+export function buildProfileSummary(channel: ChannelResult, system: UnitSystem): ProfileSummary | null {
+  const profiles = channel.profiles ?? [];
+  if (profiles.length === 0) return null;
+  const length = displayUnit('length', system);
+  const headings = [
+    QUANTITY_WORDS.flow,
+    QUANTITY_WORDS.reach,
+    QUANTITY_WORDS.profileClasses,
+    withUnit(QUANTITY_WORDS.deepestWater, length),
+    withUnit(QUANTITY_WORDS.atStation, length),
+    withUnit(QUANTITY_WORDS.normalDepth, length),
+    withUnit(QUANTITY_WORDS.leastFreeboard, length),
+    withUnit(QUANTITY_WORDS.atStation, length),
+    withUnit(QUANTITY_WORDS.aboveBank, length),
+  ];
+  const numeric = headings.map((_, index) => index >= 3 && index <= 7);
+  const rows: string[][] = [];
+  const rowFlows: string[] = [];
+  const notes: string[] = [];
+  const station = (valueM: number | null | undefined): string => formatDisplayNumber(valueM, 'length', system);
+  for (const profile of profiles) {
+    for (const reach of channel.reaches) {
+      const flow = reach.flows.find((candidate) => candidate.flow === profile.flow);
+      const share = flow?.profile;
+      if (flow === undefined || share === undefined || share === null) continue;
+      const isOpen = reach.section.fullDepth_m === null && reach.section.bankDepth_m !== null;
+      const ranges = share.overtoppedRanges.map((range) => `${station(range.fromStation_m)}–${station(range.toStation_m)}`).join(', ');
+      rows.push([
+        profile.flow,
+        reach.name,
+        share.profileClasses.join(' → '),
+        formatDisplayNumber(share.maximumDepth_m, 'length', system),
+        station(share.maximumDepthStation_m),
+        formatDisplayNumber(flow.normal?.depth_m, 'length', system),
+        formatDisplayNumber(share.minimumFreeboard_m, 'length', system),
+        station(share.minimumFreeboardStation_m),
+        isOpen ? ranges || QUANTITY_WORDS.noneWord : MISSING_VALUE,
+      ]);
+      rowFlows.push(profile.flow);
+    }
+    const failure = profile.failure;
+    if (failure !== null) {
+      notes.push(
+        failure.reason === 'conduit-surcharged' && profile.computed
+          ? PROFILE_WORDS.surcharged(profile.flow, failure.reach ?? '', `${station(failure.station_m)} ${length}`)
+          : PROFILE_WORDS.notComputed(profile.flow, failure.message.replace(/\.$/, '')),
+      );
+    }
+    for (const jump of profile.jumps) {
+      if (jump.jumpType === 'not-a-jump') continue;
+      const where = jump.placement === 'beyond-outlet' ? `beyond the outlet (station ${station(jump.station_m)} ${length})` : `in reach ${jump.reach} at station ${station(jump.station_m)} ${length}`;
+      notes.push(
+        PROFILE_WORDS.jump(
+          profile.flow,
+          where,
+          formatQuantity(jump.upstreamDepth_m, 'length', system),
+          formatFroude(jump.upstreamFroudeNumber),
+          formatQuantity(jump.downstreamDepth_m, 'length', system),
+          describeJumpType(jump.jumpType),
+          jump.sweptOut,
+        ),
+      );
+    }
+  }
+  return { headings, numeric, rows, rowFlows, notes };
 }
 
 /** "line 12" for a place in the file (lines are zero-based in the model); empty when unknown. */

@@ -53,6 +53,82 @@ const finding = {
   },
 } as const;
 
+/** A reach's share of its channel's water-surface profile at one flow (stations in m from the channel's head). */
+const stationRange = { type: 'object', required: ['fromStation_m', 'toStation_m'], properties: { fromStation_m: number, toStation_m: number } } as const;
+const reachFlowProfile = {
+  type: 'object',
+  required: ['startStation_m', 'endStation_m', 'maximumDepth_m', 'maximumDepthStation_m', 'minimumFreeboard_m', 'minimumFreeboardStation_m', 'overtoppedRanges', 'profileClasses'],
+  properties: {
+    startStation_m: number,
+    endStation_m: number,
+    maximumDepth_m: number,
+    maximumDepthStation_m: number,
+    minimumFreeboard_m: nullableNumber,
+    minimumFreeboardStation_m: nullableNumber,
+    overtoppedRanges: { type: 'array', items: stationRange },
+    profileClasses: { type: 'array', items: string },
+  },
+} as const;
+
+/** The water-surface profile of a channel at one flow: points, profile classes, jumps and remarks. */
+const channelFlowProfile = {
+  type: 'object',
+  required: ['flow', 'computed', 'failure', 'datum', 'points', 'segments', 'jumps', 'notes'],
+  properties: {
+    flow: string,
+    computed: { type: 'boolean' },
+    failure: {
+      oneOf: [
+        { type: 'object', required: ['reason', 'message', 'reach', 'station_m'], properties: { reason: string, message: string, reach: nullableString, station_m: nullableNumber } },
+        { type: 'null' },
+      ],
+    },
+    datum: { enum: ['absolute', 'relative-to-outlet'] },
+    points: {
+      type: 'array',
+      items: {
+        type: 'object',
+        required: ['station_m', 'reach', 'depth_m', 'invert_m', 'waterSurface_m', 'velocity_mps', 'froudeNumber'],
+        properties: { station_m: number, reach: string, depth_m: number, invert_m: number, waterSurface_m: number, velocity_mps: number, froudeNumber: number },
+      },
+    },
+    segments: {
+      type: 'array',
+      items: {
+        type: 'object',
+        required: ['reach', 'fromStation_m', 'toStation_m', 'profileClass'],
+        properties: { reach: string, fromStation_m: number, toStation_m: number, profileClass: { enum: ['M1', 'M2', 'M3', 'S1', 'S2', 'S3', 'C1', 'C3', 'H2', 'H3', 'A2', 'A3', 'uniform'] }, description: string },
+      },
+    },
+    jumps: {
+      type: 'array',
+      items: {
+        type: 'object',
+        required: ['station_m', 'reach', 'placement', 'upstreamDepth_m', 'downstreamDepth_m', 'upstreamFroudeNumber', 'energyLoss_m', 'jumpType', 'sweptOut'],
+        properties: {
+          station_m: number,
+          reach: string,
+          placement: { enum: ['within-reach', 'at-junction', 'beyond-outlet'] },
+          upstreamDepth_m: number,
+          downstreamDepth_m: number,
+          upstreamFroudeNumber: number,
+          upstreamVelocity_mps: number,
+          energyLoss_m: number,
+          jumpType: { enum: ['undular', 'weak', 'oscillating', 'steady', 'strong', 'not-a-jump'] },
+          supercriticalFrom: string,
+          sweptOut: { type: 'boolean' },
+          description: string,
+        },
+      },
+    },
+    notes: {
+      type: 'array',
+      items: { type: 'object', required: ['code', 'message', 'reach', 'station_m'], properties: { code: string, message: string, reach: nullableString, station_m: nullableNumber } },
+    },
+    maximumEnergyResidual_m: nullableNumber,
+  },
+} as const;
+
 const flowResult = {
   type: 'object',
   required: ['flow', 'discharge_m3s', 'normal', 'critical', 'regime', 'maxShear_Pa', 'averageShear_Pa', 'freeboard_m', 'requiredFreeboard_m', 'status', 'findings'],
@@ -72,6 +148,7 @@ const flowResult = {
     requiredFreeboard_m: nullableNumber,
     status,
     findings: { type: 'array', items: finding },
+    profile: { oneOf: [reachFlowProfile, { type: 'null' }] },
   },
 } as const;
 
@@ -132,7 +209,11 @@ const analysis = {
     displayUnits: { enum: ['SI', 'US'] },
     channels: {
       type: 'array',
-      items: { type: 'object', required: ['name', 'reaches'], properties: { name: string, reaches: { type: 'array', items: reach } } },
+      items: {
+        type: 'object',
+        required: ['name', 'reaches'],
+        properties: { name: string, reaches: { type: 'array', items: reach }, profiles: { type: 'array', items: channelFlowProfile } },
+      },
     },
     findings: { type: 'array', items: finding },
     caution: { type: 'string', minLength: 1 },

@@ -1,4 +1,8 @@
-/** The samples, analysed together, show every finding the analysis can make (except a solver failure). */
+/**
+ * The samples, analysed together, show every finding the analysis can make, except failures to compute (a depth
+ * solve, a profile) and a jump swept out of the channel, which no plausible sample design shows without being
+ * built for it: test/analysis/channel-profiles.test.ts shows those two.
+ */
 import { describe, expect, it } from 'vitest';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
@@ -8,7 +12,8 @@ describe('samples', () => {
   it('show every finding between them', async () => {
     const { documents } = await buildWorkspace(sampleFiles());
     const shown = new Set(documents.flatMap((document) => analyzeDocument(document).findings.map((finding) => finding.code)));
-    const expected = Object.values(FINDING_CODES).filter((code) => code !== FINDING_CODES.depthSolveFailed);
+    const notShown: readonly string[] = [FINDING_CODES.depthSolveFailed, FINDING_CODES.profileNotComputed, FINDING_CODES.hydraulicJumpSweptOut];
+    const expected = Object.values(FINDING_CODES).filter((code) => !notShown.includes(code));
     expect([...expected].filter((code) => !shown.has(code))).toEqual([]);
   });
 

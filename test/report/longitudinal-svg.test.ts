@@ -2,19 +2,21 @@
  * The longitudinal view, read back from its own markup: the bed follows the inverts and slopes, each flow's
  * normal- and critical-depth lines stand at the engine's depths above it, and a computed water-surface profile
  * with a hydraulic jump (direct-step method, Chow 1959 Sec. 10-2; sequent depth by Belanger's equation, derived)
- * lands where its stations and depths say.
+ * lands where its stations and depths say. Profiles reach the view as the analysis model carries them
+ * (ChannelResult.profiles); the last block draws the profile of a design analysed end to end.
  */
 import { describe, expect, it } from 'vitest';
-import type { ChannelResult } from '../../language/analysis/model.js';
+import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import type { ChannelFlowProfile, ChannelResult, HydraulicJumpResult, ProfilePointResult } from '../../language/analysis/model.js';
 import { GRAVITY_MS2, solveNormalDepth, type SectionGeometry } from '../../language/hydraulics/index.js';
 import { placeReaches, renderLongitudinalSvg } from '../../language/report/longitudinal-svg.js';
-import type { ChannelWithProfiles, WaterSurfaceProfilePoint } from '../../language/report/profile-overlay.js';
+import { buildText } from '../language/language-test-kit.js';
 import { buildAnalysis, fixtureGeometry, siDesign } from './fixtures.js';
 import { axisFromTicks, byRole, numberAttribute, parseMarkup, pathVertices, type MarkupElement } from './svg-query.js';
 
 const PIXEL_TOLERANCE = 0.6;
 
-function draw(channel: ChannelWithProfiles) {
+function draw(channel: ChannelResult) {
   const parsed = parseMarkup(renderLongitudinalSvg(channel, 'SI', { id: 'test-long' }));
   return { ...parsed, x: axisFromTicks(parsed.elements, 'x'), y: axisFromTicks(parsed.elements, 'y') };
 }
@@ -139,7 +141,7 @@ describe('longitudinal view with a computed water-surface profile', () => {
     return ((manningN * dischargeM3s) / (area * radius ** (2 / 3))) ** 2;
   };
   // S1 from the slope break (station = steepLengthM, depth = mild normal depth) upstream to the sequent depth.
-  const s1: WaterSurfaceProfilePoint[] = [{ station_m: steepLengthM, depth_m: mildNormalM }];
+  const s1: { station_m: number; depth_m: number }[] = [{ station_m: steepLengthM, depth_m: mildNormalM }];
   const steps = 40;
   for (let index = 1; index <= steps; index++) {
     const previous = s1[s1.length - 1]!;
@@ -148,12 +150,47 @@ describe('longitudinal view with a computed water-surface profile', () => {
     s1.push({ station_m: previous.station_m + (energy(depth) - energy(previous.depth_m)) / (steepSlope - meanFriction), depth_m: depth });
   }
   const jumpStationM = s1[s1.length - 1]!.station_m;
-  const points: WaterSurfaceProfilePoint[] = [
+  const bedAt = (stationM: number): number => (stationM <= steepLengthM ? 20 - steepSlope * stationM : 20 - steepSlope * steepLengthM - mildSlope * (stationM - steepLengthM));
+  const depths = [
     { station_m: 0, depth_m: steepNormalM },
     { station_m: jumpStationM, depth_m: steepNormalM },
     ...[...s1].reverse(),
     { station_m: steepLengthM + mildLengthM, depth_m: mildNormalM },
   ];
+  const points: ProfilePointResult[] = depths.map((point, index) => ({
+    ...point,
+    reach: point.station_m < steepLengthM || (point.station_m === steepLengthM && index < depths.length - 2) ? 'chute' : 'apron-channel',
+    invert_m: bedAt(point.station_m),
+    waterSurface_m: bedAt(point.station_m) + point.depth_m,
+    velocity_mps: dischargeM3s / (widthM * point.depth_m),
+    froudeNumber: dischargeM3s / (widthM * point.depth_m) / Math.sqrt(GRAVITY_MS2 * point.depth_m),
+  }));
+  const jump: HydraulicJumpResult = {
+    station_m: jumpStationM,
+    reach: 'chute',
+    placement: 'within-reach',
+    upstreamDepth_m: steepNormalM,
+    downstreamDepth_m: sequentM,
+    upstreamFroudeNumber: froude,
+    upstreamVelocity_mps: dischargeM3s / (widthM * steepNormalM),
+    energyLoss_m: energy(steepNormalM) - energy(sequentM),
+    jumpType: 'oscillating',
+    supercriticalFrom: 'chute',
+    sweptOut: false,
+    description: 'invented for the drawing',
+  };
+  const profileOf = (pointList: ProfilePointResult[], jumps: HydraulicJumpResult[]): ChannelFlowProfile => ({
+    flow: 'q100',
+    computed: true,
+    failure: null,
+    datum: 'absolute',
+    points: pointList,
+    segments: [],
+    jumps,
+    notes: [],
+    maximumEnergyResidual_m: 0,
+    provenance: { method: '', assumptions: [], references: [] },
+  });
 
   const analysis = buildAnalysis({
     title: 'Chute onto a mild channel',
@@ -169,11 +206,7 @@ describe('longitudinal view with a computed water-surface profile', () => {
       },
     ],
   });
-  const channel: ChannelWithProfiles = {
-    ...analysis.channels[0]!,
-    waterSurfaceProfiles: [{ flow: 'q100', points, jumps: [{ station_m: jumpStationM, upstreamDepth_m: steepNormalM, downstreamDepth_m: sequentM }] }],
-  };
-  const bedAt = (stationM: number): number => (stationM <= steepLengthM ? 20 - steepSlope * stationM : 20 - steepSlope * steepLengthM - mildSlope * (stationM - steepLengthM));
+  const channel: ChannelResult = { ...analysis.channels[0]!, profiles: [profileOf(points, [jump])] };
   const view = draw(channel);
 
   it('the scenario has its jump on the chute (mild normal depth above the sequent depth)', () => {
@@ -204,12 +237,83 @@ describe('longitudinal view with a computed water-surface profile', () => {
   });
 
   it('ignores malformed profile points rather than drawing NaN', () => {
-    const broken: ChannelWithProfiles = {
+    const broken: ChannelResult = {
       ...channel,
-      waterSurfaceProfiles: [{ flow: 'q100', points: [...points, { station_m: Number.NaN, depth_m: 1 }, { station_m: 10, depth_m: Number.POSITIVE_INFINITY }], jumps: [] }],
+      profiles: [profileOf([...points, { ...points[0]!, station_m: Number.NaN }, { ...points[1]!, waterSurface_m: Number.POSITIVE_INFINITY, depth_m: Number.POSITIVE_INFINITY }], [])],
     };
     const svg = renderLongitudinalSvg(broken, 'SI', { id: 'broken' });
     expect(svg).not.toMatch(/NaN|Infinity/);
     expect(pathVertices(byRole(parseMarkup(svg).elements, 'water-surface-profile')[0]?.attributes['d'] ?? '')).toHaveLength(points.length);
+  });
+});
+
+/**
+ * A design analysed end to end (invented): a concrete chute onto a mild lined channel ending in a pond, so the
+ * profile has a drawdown to critical depth at the slope break, a jump below it and a backwater curve from the
+ * pond. Whatever the analysis computed, the view must draw exactly that: one vertex per computed point at its
+ * station and water-surface elevation, each jump at its station, and the bank tops the profile is judged against.
+ */
+describe('longitudinal view of an analysed design draws the model profile', async () => {
+  const document = await buildText(`design "Chute to pond"
+units SI
+flows { q = 2.5 m3/s }
+section flume rectangle { bottom width 1.5 m  bank height 1.2 m }
+section lined trapezoid { bottom width 2 m  side slopes 1.5:1  bank height 1.4 m }
+lining concrete { n 0.014 }
+channel c {
+  reach approach { section lined  lining concrete  inverts 105.0 m to 104.8 m  length 200 m }
+  reach chute { section flume  lining concrete  slope 5 %  length 60 m }
+  reach tail { section lined  lining concrete  slope 0.1 %  length 300 m }
+  outlet water level 102.9 m
+}`);
+  const analysis = analyzeDocument(document);
+  const channel = analysis.channels[0]!;
+  const profile = channel.profiles?.[0];
+  const view = draw(channel);
+
+  it('has a computed profile with a jump to draw', () => {
+    expect(profile?.computed).toBe(true);
+    expect(profile?.points.length).toBeGreaterThan(10);
+    expect(profile?.jumps.length).toBeGreaterThan(0);
+  });
+
+  it('draws one vertex per computed point, at its station and water-surface elevation', () => {
+    expect(view.problems).toEqual([]);
+    const vertices = pathVertices(byRole(view.elements, 'water-surface-profile', 'q')[0]?.attributes['d'] ?? '');
+    expect(vertices).toHaveLength(profile!.points.length);
+    vertices.forEach((vertex, index) => {
+      const point = profile!.points[index]!;
+      expect(Math.abs(vertex.x - view.x.toPx(point.station_m))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+      expect(Math.abs(vertex.y - view.y.toPx(point.waterSurface_m))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    });
+  });
+
+  it('stands the water surface on the drawn bed (the same bed the profile was computed on)', () => {
+    const { placements } = placeReaches(channel);
+    for (const point of profile!.points) {
+      const placement = placements.find((candidate) => candidate.reach.name === point.reach)!;
+      const fraction = (point.station_m - placement.startStationM) / (placement.endStationM - placement.startStationM);
+      const bedM = placement.upstreamBedM + fraction * (placement.downstreamBedM - placement.upstreamBedM);
+      expect(Math.abs(bedM - point.invert_m)).toBeLessThan(1e-9);
+    }
+  });
+
+  it('marks each jump at its station, from its supercritical depth to its sequent depth above the bed', () => {
+    const marks = byRole(view.elements, 'hydraulic-jump', 'q');
+    expect(marks).toHaveLength(profile!.jumps.length);
+    profile!.jumps.forEach((jump, index) => {
+      expect(numberAttribute(marks[index], 'data-station-m')).toBeCloseTo(jump.station_m, 9);
+      const [low, high] = pathVertices(view.elements[view.elements.indexOf(marks[index]!) + 1]?.attributes['d'] ?? '');
+      const bed = profile!.points.find((point) => point.reach === jump.reach && Math.abs(point.station_m - jump.station_m) < 1e-9)!.invert_m;
+      expect(Math.abs(low!.y - view.y.toPx(bed + jump.upstreamDepth_m))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+      expect(Math.abs(high!.y - view.y.toPx(bed + jump.downstreamDepth_m))).toBeLessThanOrEqual(PIXEL_TOLERANCE);
+    });
+  });
+
+  it('draws the bank tops and both depth lines of the flow, and a legend entry for the computed water surface', () => {
+    expect(byRole(view.elements, 'bank-top')).toHaveLength(1);
+    expect(byRole(view.elements, 'normal-depth-line', 'q')).toHaveLength(1);
+    expect(byRole(view.elements, 'critical-depth-line', 'q')).toHaveLength(1);
+    expect(view.elements.some((element) => element.text === 'computed water surface')).toBe(true);
   });
 });

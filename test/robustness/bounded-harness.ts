@@ -7,7 +7,7 @@
 import { Worker } from 'node:worker_threads';
 import type { Diagnostic } from 'vscode-languageserver';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
-import type { CheckOptions } from './document-harness.js';
+import { largestNumberWritten, type CheckOptions } from './document-harness.js';
 
 /** A check still running after this is stopped and reported (the harness's own time bound is lower). */
 export const WATCHDOG_MS = 15_000;
@@ -74,7 +74,7 @@ export class BoundedHarness {
     if (reply === undefined) {
       this.stopped++;
       await this.replaceWorker();
-      return { problems: [`did not finish within ${WATCHDOG_MS} ms (stopped); largest number written: ${largest(text)}`], analysis: undefined as unknown as DesignAnalysis, diagnostics: [], formatted: undefined, elapsedMs: WATCHDOG_MS };
+      return { problems: [`did not finish within ${WATCHDOG_MS} ms (stopped); largest number written: ${largestNumberWritten(text)}`], analysis: undefined as unknown as DesignAnalysis, diagnostics: [], formatted: undefined, elapsedMs: WATCHDOG_MS };
     }
     if (reply.kind === 'failed') return { problems: [`the harness failed: ${reply.message}`], analysis: undefined as unknown as DesignAnalysis, diagnostics: [], formatted: undefined, elapsedMs: 0 };
     if (reply.kind !== 'checked') throw new Error(`internal: unexpected reply ${reply.kind}`);
@@ -128,10 +128,4 @@ export class BoundedHarness {
       this.worker.postMessage({ ...body, id });
     });
   }
-}
-
-function largest(text: string): number {
-  let value = 0;
-  for (const match of text.matchAll(/[+-]?(?:\d+(?:\.\d+)?|\.\d+)(?:[eE][+-]?\d+)?/g)) value = Math.max(value, Math.abs(Number(match[0])));
-  return value;
 }

@@ -349,7 +349,7 @@ async function createServerWorkspace(): Promise<Workspace> {
     },
     editor: {
       hints: async (document) => (await hints.getInlayHints(document, { textDocument: textDocument(document), range: whole(document) })) ?? [],
-      hover: (document, position) => hover.getHoverContent(document, { textDocument: textDocument(document), position }),
+      hover: async (document, position) => hover.getHoverContent(document, { textDocument: textDocument(document), position }),
       format: async (document) => {
         // formatDocument answers [] both for "nothing to change" and for "syntax errors, not formatted".
         if (document.parseResult.lexerErrors.length > 0 || document.parseResult.parserErrors.length > 0) return undefined;

@@ -2,7 +2,8 @@
  * A small run of the engine soak (scripts/engine-soak.ts, which runs a million cases): random valid inputs across
  * every section shape, each answer checked against its defining equation with geometry and formulas written apart
  * from the engine (Manning's equation, Chow 1959 Sec. 5-6; Q^2 T = g A^3, Chow 1959 Ch. 3; equal specific force
- * across a jump, Chow 1959 Ch. 3 and 15; the standard-step energy equation, Chow 1959 Ch. 10), or an explicit
+ * across a jump, Chow 1959 Ch. 3 and 15; the standard-step energy equation, Chow 1959 Ch. 10; all "derived" in
+ * /work/shared/REFERENCES.md terms: exact consequences of the published formulas), or an explicit
  * no-solution whose reason is confirmed independently. The seed is printed with any failure
  * (RUNNEL_FUZZ_SEED=<n> replays it).
  */
@@ -42,7 +43,7 @@ describe('engine soak, in-suite size', () => {
         expect(Math.abs(mine.firstMomentM3 / section.firstMomentM3(y) - 1), label).toBeLessThan(1e-10);
       }
     }
-    // Circle, half full, by hand (from memory): A = pi D^2 / 8, P = pi D / 2, T = D, A ybar = D^3 / 12.
+    // Circle, half full (derived: a half disc): A = pi D^2 / 8, P = pi D / 2, T = D, A ybar = D^3 / 12.
     const half = closedForm({ shape: 'circle', diameterM: 2 }, 1);
     expect(half.areaM2).toBeCloseTo(Math.PI / 2, 12);
     expect(half.perimeterM).toBeCloseTo(Math.PI, 12);

@@ -12,7 +12,7 @@ const scale = scaleText !== undefined && Number(scaleText) > 0 ? Number(scaleTex
 /** fast-check parameters for `runs` cases (scaled), with the replay seed when one is given. */
 export function fuzzParameters<T>(runs: number): Parameters<T> {
   const seed = seedText !== undefined && seedText !== '' ? Number(seedText) : undefined;
-  return { numRuns: Math.max(1, Math.round(runs * scale)), ...(seed === undefined ? {} : { seed }), endOnFailure: false };
+  return { numRuns: Math.max(1, Math.round(runs * scale)), ...(seed === undefined ? {} : { seed }) };
 }
 
 /** A seed for the suites that draw their own random numbers (printed with every failure). */

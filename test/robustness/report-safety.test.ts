@@ -143,7 +143,7 @@ describe.skipIf(!chromiumPresent)('report safety in headless Chromium', () => {
     await page.addInitScript(`window.__ranIds = []; window.__ran = function (id) { window.__ranIds.push(String(id)); };${initScript ?? ''}`);
     await page.goto(PAGE_URL, { waitUntil: 'load' });
     // Give timers, refreshes and lazy loads a moment to fire if anything scheduled them.
-    await page.waitForTimeout(150);
+    await page.waitForTimeout(60);
     return { page, requests, dialogs, errors };
   }
 
