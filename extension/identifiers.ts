@@ -31,5 +31,5 @@ export type CommandId = (typeof COMMAND_IDS)[keyof typeof COMMAND_IDS];
 /** Name of the output channel that carries the extension's and the server's status and errors. */
 export const OUTPUT_CHANNEL_NAME = 'Runnel';
 
-/** Bundled language server, relative to the extension's folder (scripts/build.mjs writes it). */
+/** Bundled language server, relative to the extension's folder (.scripts/build.mjs writes it). */
 export const SERVER_BUNDLE_PATH = 'dist/server.cjs';

@@ -1,6 +1,8 @@
 /**
  * The analysis: a Runnel document in, a DesignAnalysis out (see model.ts). Each reach is checked at each design
- * flow in uniform flow with the engine, and the results are judged against the criteria in force.
+ * flow in uniform flow with the engine; each channel's water-surface profile is computed at each design flow
+ * (channel-profiles.ts), and over-topping and freeboard are judged on the deeper of the two; jumps and profiles
+ * that cannot be computed give their own findings (profile-findings.ts).
  *
  * One computation per document version: `analyzeDocument` caches its result per document and recomputes only when
  * the text changed or a lining or section the design uses (possibly in another file) was replaced. Diagnostics,
@@ -54,7 +56,7 @@ import {
   type ResolvedSection,
 } from './design-inputs.js';
 import { FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
-import { computeChannelProfiles, type ComputedFlowProfile, type ProfileReachPlan } from './channel-profiles.js';
+import { computeChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
 import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
 import type {
   ChannelResult,
@@ -90,7 +92,9 @@ export function analyzeDocument(document: LangiumDocument): DesignAnalysis {
   const dependencies = isRunnelFile(root) ? resolvedDependencies(root) : [root];
   const cached = analysisCache.get(document);
   if (cached !== undefined && cached.version === version && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
-  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version) : emptyAnalysis(document.uri.toString(), version);
+  const memo = openProfileMemo(document);
+  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo) : emptyAnalysis(document.uri.toString(), version);
+  keepProfileMemo(document, memo);
   analysisCache.set(document, { version, dependencies, analysis });
   return analysis;
 }
@@ -176,13 +180,13 @@ function emptyAnalysis(uri: string, version: number): DesignAnalysis {
   };
 }
 
-function analyzeFile(file: RunnelFile, uri: string, version: number): DesignAnalysis {
+function analyzeFile(file: RunnelFile, uri: string, version: number, memo: ProfileMemo): DesignAnalysis {
   const { system, origin } = displayUnitsOf(file);
   const formatter = new MessageFormatter(system);
   const criteriaBlocks = designCriteriaBlocks(file);
   const flows = designFlows(file);
   const incompleteReaches: IncompleteReach[] = [];
-  const channels = designChannels(file).map((channel) => analyzeChannel(channel, flows, criteriaBlocks, system, formatter, incompleteReaches));
+  const channels = designChannels(file).map((channel) => analyzeChannel(channel, flows, criteriaBlocks, system, formatter, incompleteReaches, memo));
   const findings = channels.flatMap((channel) => channel.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)));
   const header = file.header;
   return {
@@ -227,6 +231,7 @@ function analyzeChannel(
   system: UnitSystem,
   formatter: MessageFormatter,
   incompleteReaches: IncompleteReach[],
+  memo: ProfileMemo,
 ): ChannelResult {
   const channelName = channel.name ?? '';
   const dischargesByReach = channelFlowDischarges(channel, flows);
@@ -285,10 +290,11 @@ function analyzeChannel(
     upstreamInvertM: geometry.upstreamInvertM,
     downstreamInvertM: geometry.downstreamInvertM,
     dischargesM3s: new Map([...discharges].map(([flow, discharge]) => [flow.name ?? '', discharge.dischargeM3s])),
+    nearCriticalFroudeHigh: context.criteria.avoidFroude.high,
   }));
   const silentObstacle =
     leftOut.length > 0 ? `Reach${leftOut.length > 1 ? 'es' : ''} ${leftOut.map((name) => `'${name}'`).join(', ')} could not be analysed, so the channel has no continuous profile.` : analysed.length === 0 ? 'The channel has no reach to compute.' : null;
-  const profiles = computeChannelProfiles({ reaches: profileReaches, outlet, silentObstacle }, uniqueNames(flows));
+  const profiles = computeChannelProfiles({ reaches: profileReaches, outlet, silentObstacle }, uniqueNames(flows), memo);
   const profileByFlow = new Map(profiles.map((profile) => [profile.model.flow, profile]));
   const findingReaches: ReachForFindings[] = analysed.map(({ context }) => ({
     name: context.reachName,
@@ -300,7 +306,6 @@ function analyzeChannel(
     liningLocation: locationOf(context.liningNode),
     maxVelocityMps: context.lining.maxVelocityMps,
     maxShearPa: context.lining.maxShearPa,
-    nearCriticalFroudeHigh: context.criteria.avoidFroude.high,
   }));
   const outletLocation = outletNode === undefined ? null : locationOf(outletNode);
   const draftsByFlow = new Map(profiles.map((profile) => [profile.model.flow, profileFindingDrafts(findingReaches, profile, formatter, outletLocation)]));
@@ -536,7 +541,16 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
         report(
           FINDING_CODES.freeboardBelowRequired,
           'warning',
-          FINDING_MESSAGES.freeboardBelowRequiredByProfile(f, { flow: flowName, freeboardM: actualM, requiredM, depthM, stationM, normalDepthM: normal?.depth_m ?? null, usbrCoefficientM }),
+          FINDING_MESSAGES.freeboardBelowRequiredByProfile(f, {
+            flow: flowName,
+            freeboardM: actualM,
+            requiredM,
+            depthM,
+            stationM,
+            normalDepthM: normal?.depth_m ?? null,
+            profileClass: profileClassAt(profileInput.profile, context.reachName, stationM),
+            usbrCoefficientM,
+          }),
           {
             actual_m: actualM,
             required_m: requiredM,

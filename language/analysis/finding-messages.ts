@@ -77,6 +77,13 @@ function jumpRise(f: MessageFormatter, p: JumpWords): string {
   return `rising from ${f.length(p.upstreamDepthM)} (Froude number ${formatRatio(p.froude)}) to ${f.length(p.downstreamDepthM)}, ${describeJumpType(p.jumpType)}`;
 }
 
+/** Why the computed water surface stands above normal depth, by the class of the profile there. */
+function aboveNormalCause(profileClass: string | null): string {
+  if (profileClass === 'M1' || profileClass === 'S1' || profileClass === 'C1') return `backwater raises the water here (${profileClass} curve)`;
+  if (profileClass === 'S2') return 'the flow has not yet drawn down to normal depth from critical depth at the head of the steep reach (S2 curve)';
+  return `the computed water surface stands above normal depth here${profileClass === null ? '' : ` (${profileClass} curve)`}`;
+}
+
 /** Stations are measured along the channel from its upstream end: said once in each message that uses them. */
 const STATIONS_FROM_HEAD = '(stations from the head of the channel)';
 
@@ -113,7 +120,7 @@ export const FINDING_MESSAGES = {
       p.normalDepthM === null
         ? ' The reach has no normal depth; the profile alone decides.'
         : p.normalDepthM <= p.bankDepthM
-          ? ` Normal depth ${f.length(p.normalDepthM)} alone would not over-top: backwater raises the water here${p.profileClass === null ? '' : ` (${p.profileClass} curve)`}.`
+          ? ` Normal depth ${f.length(p.normalDepthM)} alone would not over-top: ${aboveNormalCause(p.profileClass)}.`
           : ` Normal depth ${f.length(p.normalDepthM)} is above the bank too.`;
     return `Over-topping at ${p.flow}: the computed water surface stands ${f.length(p.depthM)} deep at ${f.station(p.stationM)}, ${f.length(p.depthM - p.bankDepthM)} above the ${f.length(p.bankDepthM)} bank of section '${p.section}'.${where}${cause}`;
   },
@@ -128,10 +135,10 @@ export const FINDING_MESSAGES = {
   /** Freeboard judged on the water-surface profile where it stands above normal depth. */
   freeboardBelowRequiredByProfile: (
     f: MessageFormatter,
-    p: { flow: string; freeboardM: number; requiredM: number; depthM: number; stationM: number; normalDepthM: number | null; usbrCoefficientM: number | null },
+    p: { flow: string; freeboardM: number; requiredM: number; depthM: number; stationM: number; normalDepthM: number | null; profileClass: string | null; usbrCoefficientM: number | null },
   ) =>
     `Freeboard at ${p.flow} is ${f.length(p.freeboardM)} at ${f.station(p.stationM)} ${STATIONS_FROM_HEAD}, where the computed water surface stands ${f.length(p.depthM)} deep` +
-    (p.normalDepthM === null ? ' (no normal depth in this reach)' : ` (normal depth ${f.length(p.normalDepthM)}: backwater raises it)`) +
+    (p.normalDepthM === null ? ' (no normal depth in this reach)' : ` (normal depth ${f.length(p.normalDepthM)}: ${aboveNormalCause(p.profileClass)})`) +
     `; the criteria require ${f.length(p.requiredM)}` +
     (p.usbrCoefficientM === null ? '.' : ` (USBR rule F = sqrt(C y) with C = ${f.length(p.usbrCoefficientM)} and y the depth there).`),
 

@@ -184,6 +184,12 @@ export interface HydraulicJumpResult {
    * supercritical flow whose slope is not steep at this flow), or beyond the outlet.
    */
   readonly sweptOut: boolean;
+  /**
+   * True when the flow enters within the near-critical Froude band the criteria avoid in that reach: a wavy
+   * passage through critical depth rather than a jump to speak of. Findings, drawings and tables leave it out
+   * (the near-critical check reports the reach).
+   */
+  readonly nearCritical: boolean;
   readonly description: string;
 }
 

@@ -31,8 +31,6 @@ export interface ReachForFindings {
   readonly liningLocation: SourceLocation;
   readonly maxVelocityMps: number | null;
   readonly maxShearPa: number | null;
-  /** Upper end of the near-critical Froude band the criteria avoid in this reach. */
-  readonly nearCriticalFroudeHigh: number;
 }
 
 /** A finding before the analysis attaches the reach, the flow and the discharge to it. */
@@ -92,7 +90,7 @@ export function profileFindingDrafts(
     if (reach === undefined) continue;
     // Entering within the near-critical band, the "jump" is a wavy passage through critical depth: the
     // near-critical check speaks for it, not a jump finding.
-    if (jump.result.jumpType === 'not-a-jump' || jump.result.upstreamFroudeNumber <= reach.nearCriticalFroudeHigh) continue;
+    if (jump.result.jumpType === 'not-a-jump' || jump.result.nearCritical) continue;
     const words = jumpWords(flow, jump, Math.abs(jump.result.station_m - (profile.reachProfiles[jump.reachIndex]?.startStation_m ?? Number.NaN)) <= 1e-6);
     const data = jumpData(jump);
     if (jump.result.placement === 'beyond-outlet') {

@@ -167,8 +167,8 @@ export function renderLongitudinalSvg(channel: ChannelResult, system: UnitSystem
     parts.push(segmentsPath(`normal-line ${colour}`, 'normal-depth-line', flowName, placements, depthOf('normal'), X, Y));
   }
 
-  // The computed water surface of each flow, and its jumps.
-  for (const profile of profiles) {
+  // The computed water surface of each flow, and its jumps (labels of different flows stacked, not overlapping).
+  profiles.forEach((profile, profileIndex) => {
     const colour = colourOf(profile.flow);
     const points = profile.points.map((point) => ({ x: X(point.station_m), y: Y(point.waterSurface_m) }));
     if (points.length > 1) parts.push(`<path class="profile-line ${colour}" data-role="water-surface-profile" data-flow="${escapeHtml(profile.flow)}" d="${pathThrough(points, false)}"/>`);
@@ -181,10 +181,10 @@ export function renderLongitudinalSvg(channel: ChannelResult, system: UnitSystem
         `<g class="jump-mark ${colour}" data-role="hydraulic-jump" data-flow="${escapeHtml(profile.flow)}" data-station-m="${jump.station_m}" ` +
           `data-upstream-depth-m="${jump.upstreamDepth_m}" data-downstream-depth-m="${jump.downstreamDepth_m}">` +
           `<path d="M${px(x)} ${px(yLow)} L${px(x)} ${px(yHigh)} M${px(x - 4)} ${px(yHigh + 6)} L${px(x)} ${px(yHigh)} L${px(x + 4)} ${px(yHigh + 6)}"/>` +
-          `<text class="fig-label" x="${px(x + 6)}" y="${px(yHigh - 4)}">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text></g>`,
+          `<text class="fig-label" x="${px(x + 6)}" y="${px(yHigh - 4 - 11 * profileIndex)}">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text></g>`,
       );
     }
-  }
+  });
 
   // The outlet condition at the downstream end.
   const outletX = X(totalLengthM);

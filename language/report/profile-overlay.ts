@@ -45,6 +45,8 @@ export function drawnProfilesOf(channel: ChannelResult): readonly DrawnProfile[]
     const jumpList: readonly HydraulicJumpResult[] = Array.isArray(profile.jumps) ? (profile.jumps as readonly HydraulicJumpResult[]) : [];
     for (const jump of jumpList) {
       if (!(Number.isFinite(jump.station_m) && Number.isFinite(jump.upstreamDepth_m) && Number.isFinite(jump.downstreamDepth_m))) continue;
+      // A passage through critical depth within the near-critical band is no jump to draw (model.ts).
+      if (jump.nearCritical === true || jump.jumpType === 'not-a-jump') continue;
       // The bed under the jump: from the computed point of its reach nearest to it.
       let invertM: number | undefined;
       let nearestM = Number.POSITIVE_INFINITY;

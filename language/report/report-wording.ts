@@ -105,7 +105,7 @@ export const QUANTITY_WORDS = {
   deepestWater: 'Deepest water',
   atStation: 'At station',
   leastFreeboard: 'Least freeboard',
-  aboveBank: 'Above the bank (stations)',
+  aboveBank: 'Above the bank, from–to',
   noneWord: 'none',
 } as const;
 

@@ -257,8 +257,15 @@ export function buildProfileSummary(channel: ChannelResult, system: UnitSystem):
       );
     }
     for (const jump of profile.jumps) {
-      if (jump.jumpType === 'not-a-jump') continue;
-      const where = jump.placement === 'beyond-outlet' ? `beyond the outlet (station ${station(jump.station_m)} ${length})` : `in reach ${jump.reach} at station ${station(jump.station_m)} ${length}`;
+      if (jump.jumpType === 'not-a-jump' || jump.nearCritical) continue;
+      const share = channel.reaches.find((reach) => reach.name === jump.reach)?.flows.find((flow) => flow.flow === profile.flow)?.profile;
+      const atStart = share !== undefined && share !== null && Math.abs(share.startStation_m - jump.station_m) <= 1e-6;
+      const where =
+        jump.placement === 'beyond-outlet'
+          ? `beyond the outlet (station ${station(jump.station_m)} ${length})`
+          : jump.placement === 'at-junction'
+            ? `at the ${atStart ? 'upstream' : 'downstream'} end of reach ${jump.reach} (station ${station(jump.station_m)} ${length})`
+            : `in reach ${jump.reach} at station ${station(jump.station_m)} ${length}`;
       notes.push(
         PROFILE_WORDS.jump(
           profile.flow,

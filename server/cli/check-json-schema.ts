@@ -117,6 +117,7 @@ const channelFlowProfile = {
           jumpType: { enum: ['undular', 'weak', 'oscillating', 'steady', 'strong', 'not-a-jump'] },
           supercriticalFrom: string,
           sweptOut: { type: 'boolean' },
+          nearCritical: { type: 'boolean' },
           description: string,
         },
       },

@@ -11,6 +11,7 @@
  *   analysis' coarser step control stays within 1 % of the same method with steps ten times finer (a
  *   convergence check of the method on itself, stated as such).
  */
+import { Ajv } from 'ajv';
 import { describe, expect, it } from 'vitest';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { ANALYSIS_PROFILE_STEP_CONTROL } from '../../language/analysis/channel-profiles.js';
@@ -23,6 +24,8 @@ import {
   type ProfileReachInput,
 } from '../../language/hydraulics/index.js';
 import { sectionGeometryFromResult } from '../../language/report/section-from-result.js';
+import { CHECK_JSON_SCHEMA } from '../../server/cli/check-json-schema.js';
+import { CHECK_JSON_SCHEMA_VERSION } from '../../server/cli/check-output.js';
 import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
 import { analyse, expectClose, flowOf, FOOT_M, CFS_M3S, reachOf } from './analysis-test-kit.js';
 
@@ -416,5 +419,30 @@ describe('the samples', async () => {
       }
     }
     expect(compared).toBeGreaterThan(5);
+  });
+});
+
+// ------------------------------------------------------------------------------------------------ JSON output
+
+describe('the profiles in `runnel check --format json`', () => {
+  it('match the documented schema, for whole, partial and missing profiles alike', async () => {
+    const designs = [
+      ...Object.entries(sampleFiles()).filter(([name]) => name !== 'linings.runnel').map(([, text]) => text),
+      pondDesign(101.3),
+      flumeDesign({ mildLengthM: 5, outlet: 'outlet water level 108.895 m' }),
+      flumeDesign({ mildLengthM: 5, outlet: 'outlet free fall' }),
+    ];
+    const ajv = new Ajv({ allErrors: true, strict: false });
+    const validate = ajv.compile(CHECK_JSON_SCHEMA);
+    const { documents } = await buildWorkspace({ ...Object.fromEntries(designs.map((text, index) => [`d${index}.runnel`, text])), 'linings.runnel': sampleFiles()['linings.runnel'] ?? '' });
+    const tally = { errors: 0, warnings: 0, information: 0 };
+    const files = documents
+      .filter((document) => !document.uri.path.endsWith('linings.runnel'))
+      .map((document) => ({ path: document.uri.path, uri: document.uri.toString(), summary: tally, diagnostics: [], analysis: JSON.parse(JSON.stringify(analyzeDocument(document))) as unknown }));
+    const output = { schemaVersion: CHECK_JSON_SCHEMA_VERSION, tool: { name: 'runnel', version: '0' }, caution: 'c', summary: { ...tally, files: files.length }, files };
+    expect(validate(output), JSON.stringify(validate.errors?.slice(0, 5))).toBe(true);
+    const profiles = files.flatMap((file) => (file.analysis as DesignAnalysis).channels.flatMap((channel) => channel.profiles ?? []));
+    expect(profiles.some((profile) => profile.failure?.reason === 'conduit-surcharged' && profile.computed)).toBe(true);
+    expect(profiles.some((profile) => profile.jumps.some((jump) => jump.placement === 'beyond-outlet'))).toBe(true);
   });
 });

@@ -6,7 +6,7 @@
 import { spawn } from 'node:child_process';
 import { mkdtempSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
+import { dirname, join, resolve as resolvePath } from 'node:path';
 import { afterAll } from 'vitest';
 import { runCli } from '../../server/cli/run-cli.js';
 
@@ -38,7 +38,9 @@ function cleanEnvironment(extra: Readonly<Record<string, string>>): Record<strin
 }
 
 export function runRunnelProcess(args: readonly string[], options: RunOptions = {}): Promise<RunResult> {
-  const bundle = process.env['RUNNEL_CLI_BUNDLE'];
+  const given = process.env['RUNNEL_CLI_BUNDLE'];
+  // A relative bundle path is relative to the repository (npm test passes dist/runnel.cjs); tests run in temp folders.
+  const bundle = given === undefined || given === '' ? undefined : resolvePath(REPOSITORY_ROOT, given);
   const nodeArgs = bundle === undefined ? ['--import', TSX_LOADER, CLI_ENTRY, ...args] : [bundle, ...args];
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, nodeArgs, { cwd: options.cwd ?? REPOSITORY_ROOT, env: cleanEnvironment(options.env ?? {}), stdio: ['ignore', 'pipe', 'pipe'] });

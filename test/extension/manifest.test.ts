@@ -77,7 +77,7 @@ const settings = Object.assign({}, ...manifest.contributes.configuration.map((ca
 >;
 
 describe('manifest: entry points and bundles', () => {
-  it('main is the bundle scripts/build.mjs makes from extension/extension.ts', () => {
+  it('main is the bundle .scripts/build.mjs makes from extension/extension.ts', () => {
     expect(manifest.main.replace(/^\.\//, '')).toBe('dist/extension.cjs');
     expect(buildOutputs().get('extension/extension.ts')).toBe('dist/extension.cjs');
     expect(existsSync(join(ROOT, 'extension/extension.ts'))).toBe(true);
@@ -377,9 +377,9 @@ function typeScriptFilesUnder(folder: string): string[] {
   });
 }
 
-/** Entry point -> output file of every esbuild call in scripts/build.mjs. */
+/** Entry point -> output file of every esbuild call in .scripts/build.mjs. */
 function buildOutputs(): Map<string, string> {
-  const script = readText('scripts/build.mjs');
+  const script = readText('.scripts/build.mjs');
   const outputs = new Map<string, string>();
   for (const match of script.matchAll(/entryPoints: \['([^']+)'\][^}]*?outfile: '([^']+)'/gs)) {
     if (match[1] !== undefined && match[2] !== undefined) outputs.set(match[1], match[2]);

@@ -177,6 +177,7 @@ describe('longitudinal view with a computed water-surface profile', () => {
     jumpType: 'oscillating',
     supercriticalFrom: 'chute',
     sweptOut: false,
+    nearCritical: false,
     description: 'invented for the drawing',
   };
   const profileOf = (pointList: ProfilePointResult[], jumps: HydraulicJumpResult[]): ChannelFlowProfile => ({
@@ -300,8 +301,10 @@ channel c {
 
   it('marks each jump at its station, from its supercritical depth to its sequent depth above the bed', () => {
     const marks = byRole(view.elements, 'hydraulic-jump', 'q');
-    expect(marks).toHaveLength(profile!.jumps.length);
-    profile!.jumps.forEach((jump, index) => {
+    const jumps = profile!.jumps.filter((jump) => !jump.nearCritical && jump.jumpType !== 'not-a-jump');
+    expect(jumps.length).toBeGreaterThan(0);
+    expect(marks).toHaveLength(jumps.length);
+    jumps.forEach((jump, index) => {
       expect(numberAttribute(marks[index], 'data-station-m')).toBeCloseTo(jump.station_m, 9);
       const [low, high] = pathVertices(view.elements[view.elements.indexOf(marks[index]!) + 1]?.attributes['d'] ?? '');
       const bed = profile!.points.find((point) => point.reach === jump.reach && Math.abs(point.station_m - jump.station_m) < 1e-9)!.invert_m;
@@ -315,5 +318,27 @@ channel c {
     expect(byRole(view.elements, 'normal-depth-line', 'q')).toHaveLength(1);
     expect(byRole(view.elements, 'critical-depth-line', 'q')).toHaveLength(1);
     expect(view.elements.some((element) => element.text === 'computed water surface')).toBe(true);
+  });
+});
+
+describe('a passage through critical depth within the near-critical band', () => {
+  it('is not drawn as a jump', () => {
+    const ditch = siDesign().channels[0]!;
+    const reach = ditch.reaches[0]!;
+    const point = (station: number, depth: number): ProfilePointResult => ({ station_m: station, reach: reach.name, depth_m: depth, invert_m: 50, waterSurface_m: 50 + depth, velocity_mps: 1, froudeNumber: 1 });
+    const nearCriticalJump: HydraulicJumpResult = {
+      station_m: 10, reach: reach.name, placement: 'within-reach', upstreamDepth_m: 0.5, downstreamDepth_m: 0.502, upstreamFroudeNumber: 1.01, upstreamVelocity_mps: 1,
+      energyLoss_m: 0, jumpType: 'undular', supercriticalFrom: reach.name, sweptOut: false, nearCritical: true, description: '',
+    };
+    const profile: ChannelFlowProfile = {
+      flow: 'q10', computed: true, failure: null, datum: 'absolute', points: [point(0, 0.5), point(10, 0.5), point(10, 0.502), point(20, 0.502)], segments: [], jumps: [nearCriticalJump],
+      notes: [], maximumEnergyResidual_m: 0, provenance: { method: '', assumptions: [], references: [] },
+    };
+    const view = draw({ ...ditch, profiles: [profile] });
+    expect(byRole(view.elements, 'water-surface-profile', 'q10')).toHaveLength(1);
+    expect(byRole(view.elements, 'hydraulic-jump')).toEqual([]);
+    // Its twin, entering above the band, is drawn.
+    const twin = draw({ ...ditch, profiles: [{ ...profile, jumps: [{ ...nearCriticalJump, nearCritical: false }] }] });
+    expect(byRole(twin.elements, 'hydraulic-jump')).toHaveLength(1);
   });
 });

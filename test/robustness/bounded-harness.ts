@@ -10,7 +10,7 @@ import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { largestNumberWritten, type CheckOptions } from './document-harness.js';
 
 /** A check still running after this is stopped and reported (the harness's own time bound is lower). */
-export const WATCHDOG_MS = 15_000;
+export const WATCHDOG_MS = 8_000;
 /** Starting a worker and building its workspace can take a while on a loaded machine. */
 const START_BOUND_MS = 60_000;
 
@@ -61,11 +61,11 @@ export class BoundedHarness {
 
   async put(name: string, text: string): Promise<void> {
     this.files[name] = text;
-    await this.send({ kind: 'put', name, text }, START_BOUND_MS);
+    expectDone(await this.send({ kind: 'put', name, text }, START_BOUND_MS), `putting ${name}`);
   }
 
   async restore(name: string): Promise<void> {
-    await this.send({ kind: 'restore', name }, START_BOUND_MS);
+    expectDone(await this.send({ kind: 'restore', name }, START_BOUND_MS), `restoring ${name}`);
   }
 
   /** Runs every check on the text; a check that does not finish within WATCHDOG_MS is reported as a problem. */
@@ -128,4 +128,9 @@ export class BoundedHarness {
       this.worker.postMessage({ ...body, id });
     });
   }
+}
+
+function expectDone(reply: HarnessReply | undefined, what: string): void {
+  if (reply === undefined) throw new Error(`the harness worker did not answer within ${START_BOUND_MS} ms when ${what}`);
+  if (reply.kind === 'failed') throw new Error(`the harness worker failed when ${what}: ${reply.message}`);
 }

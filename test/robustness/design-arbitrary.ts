@@ -12,7 +12,7 @@
  * rather than read from language/units.
  */
 import fc from 'fast-check';
-import type { ShapeDimensions } from '../../scripts/engine-soak.js';
+import type { ShapeDimensions } from '../../.scripts/engine-soak.js';
 
 const FOOT = 0.3048;
 const INCH = 0.0254;

@@ -1,5 +1,5 @@
 /**
- * A small run of the engine soak (scripts/engine-soak.ts, which runs a million cases): random valid inputs across
+ * A small run of the engine soak (.scripts/engine-soak.ts, which runs a million cases): random valid inputs across
  * every section shape, each answer checked against its defining equation with geometry and formulas written apart
  * from the engine (Manning's equation, Chow 1959 Sec. 5-6; Q^2 T = g A^3, Chow 1959 Ch. 3; equal specific force
  * across a jump, Chow 1959 Ch. 3 and 15; the standard-step energy equation, Chow 1959 Ch. 10; all "derived" in
@@ -9,7 +9,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { circleSection, parabolaSection, solveCriticalDepth, solveNormalDepth, trapezoidSection } from '../../language/hydraulics/index.js';
-import { checkCase, closedForm, criticalDepthProblem, drawCase, emptyCounts, engineSection, formatReport, normalDepthProblem, randomSource, runSoak, SHAPES, type ShapeDimensions } from '../../scripts/engine-soak.js';
+import { checkCase, closedForm, criticalDepthProblem, drawCase, emptyCounts, engineSection, formatReport, normalDepthProblem, randomSource, runSoak, SHAPES, type ShapeDimensions } from '../../.scripts/engine-soak.js';
 import { FUZZ_SCALE, fuzzSeed } from './fuzz-settings.js';
 
 describe('engine soak, in-suite size', () => {

@@ -12,7 +12,7 @@ import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DesignAnalysis, FlowResult, ReachResult } from '../../language/analysis/model.js';
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
-import { closedForm } from '../../scripts/engine-soak.js';
+import { closedForm } from '../../.scripts/engine-soak.js';
 import { generatedDesign, type ExpectedReach, type GeneratedDesign } from './design-arbitrary.js';
 import { BoundedHarness } from './bounded-harness.js';
 import { fuzzParameters, reportSetAside } from './fuzz-settings.js';
@@ -132,7 +132,7 @@ describe('generated designs', () => {
         expect(unknown, context).toEqual([]);
         if (known.size === 0) expect(disagreements(design, outcome.analysis), context).toEqual([]);
       }),
-      fuzzParameters(45),
+      fuzzParameters(40),
     );
   });
 

@@ -46,7 +46,7 @@ describe('mutated samples', () => {
       fc.asyncProperty(fc.constantFrom(...names), mutations, async (name, list) => {
         await expectClean(name, applyMutations(samples[name] ?? '', list));
       }),
-      fuzzParameters(90),
+      fuzzParameters(75),
     );
   });
 

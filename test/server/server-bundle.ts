@@ -1,12 +1,12 @@
 /**
  * The server bundle the protocol tests and the benchmark run: built from the current sources with the options of
- * scripts/build.mjs (esbuild, CommonJS, node20, the import.meta.url mapping) into a temporary folder, so the tests
+ * .scripts/build.mjs (esbuild, CommonJS, node20, the import.meta.url mapping) into a temporary folder, so the tests
  * always drive what `npm run build` would ship. RUNNEL_SERVER_BUNDLE=path uses an existing bundle instead
  * (e.g. dist/server.cjs in CI after `npm run build`).
  */
 import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, resolve as resolvePath } from 'node:path';
 import { build } from 'esbuild';
 
 export const REPOSITORY_ROOT = join(import.meta.dirname, '..', '..');
@@ -20,7 +20,8 @@ export function serverBundle(): Promise<string> {
 
 async function buildBundle(): Promise<string> {
   const given = process.env['RUNNEL_SERVER_BUNDLE'];
-  if (given !== undefined && given !== '') return given;
+  // A relative path is relative to the repository (npm test passes dist/server.cjs).
+  if (given !== undefined && given !== '') return resolvePath(REPOSITORY_ROOT, given);
   // One folder for every test process's bundle; bundles older than an hour are left-overs of earlier runs.
   const folder = join(tmpdir(), 'runnel-server-bundles');
   mkdirSync(folder, { recursive: true });

@@ -21,7 +21,7 @@ export function parabolaSection({ topWidthM: referenceTopWidthM, atDepthM: refer
   const topWidthM = (y: number): number => referenceTopWidthM * Math.sqrt(Math.max(y, 0) / referenceDepthM);
   // Normal-depth start, in logs: shallow limit P ~ T gives K = (2/3)^(5/3) c y^(13/6); deep limit P ~ 2y gives
   // K = ((2/3) c)^(5/3) 2^(-2/3) y^(11/6). P exceeds both T and 2y, so the depth lies above both limits; the soft
-  // maximum (yShallow^p + yDeep^p)^(1/p) with p = 5 starts within 1% over the swale ranges of bench/engine.ts
+  // maximum (yShallow^p + yDeep^p)^(1/p) with p = 5 starts within 1% over the swale ranges of test/bench/engine.ts
   // (measured). It only chooses where the iteration starts.
   const logShallowCoefficient = (5 / 3) * Math.log(2 / 3) + Math.log(widthCoefficient);
   const logDeepCoefficient = (5 / 3) * Math.log((2 / 3) * widthCoefficient) - (2 / 3) * Math.log(2);

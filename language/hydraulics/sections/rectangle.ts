@@ -25,7 +25,7 @@ export function rectangleSection({ bottomWidthM }: RectangleDimensions): Section
     solverHints: {
       // Starts from the two limits: wide (P ~ b, K = b y^(5/3)) and narrow (P ~ 2y, K = b^(5/3) 2^(-2/3) y). P
       // exceeds both b and 2y, so the depth lies above both; their root-sum-square starts within 2.5% over the
-      // ranges of bench/engine.ts (measured), with one exponential and one logarithm.
+      // ranges of test/bench/engine.ts (measured), with one exponential and one logarithm.
       normalDepthEstimateM: (conveyanceM83) => {
         const wideDepthM = Math.exp(0.6 * (Math.log(conveyanceM83) - logBottomWidth));
         const narrowDepthM = conveyanceM83 / narrowConveyancePerDepth;

@@ -43,7 +43,7 @@ function trapezoidProblem(bottomWidthM: number, leftSideSlopeHV: number, rightSi
  * Solver starts from the two limits of the section: a wide rectangle of width b (conveyance b y^(5/3), section
  * factor b y^(3/2)) and the V-ditch formed by the sides alone (closed forms as in triangle.ts). The depth always
  * lies below the V-ditch depth and near the smaller of the two; the soft minimum yWide yVee / sqrt(yWide^2 + yVee^2)
- * starts within about 10% (normal depth) and 3% (critical depth) over the design ranges of bench/engine.ts, for
+ * starts within about 10% (normal depth) and 3% (critical depth) over the design ranges of test/bench/engine.ts, for
  * about 3.6 and 3.3 evaluations per solve (measured). A sharper blend (exponent 2.5 in place of 2) saves half an
  * evaluation but costs two more transcendental calls, which on this engine take longer than the evaluation saved.
  * It only chooses where the iteration starts.

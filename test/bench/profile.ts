@@ -3,10 +3,10 @@
  * under 20 ms. Prints, over repeated runs after a warm-up, the median and fastest wall-clock time and the median
  * CPU time of the process (which a busy machine disturbs less), for two channels: one mild reach with a backwater
  * curve (subcritical pass only), and four reaches alternating mild and steep (both passes, two hydraulic jumps).
- * Run through bench/run-all.ts, or alone with `npx tsx bench/profile.ts`.
+ * Run through test/bench/run-all.ts, or alone with `npx tsx test/bench/profile.ts`.
  */
-import { computeChannelProfile, type ChannelProfileInput } from '../language/hydraulics/profile/index.js';
-import { trapezoidSection } from '../language/hydraulics/sections/index.js';
+import { computeChannelProfile, type ChannelProfileInput } from '../../language/hydraulics/profile/index.js';
+import { trapezoidSection } from '../../language/hydraulics/sections/index.js';
 
 const TARGET_MS = 20;
 const WARM_UP_RUNS = 5;
@@ -82,5 +82,5 @@ export async function run(): Promise<void> {
   }
 }
 
-// Allow `npx tsx bench/profile.ts` on its own.
+// Allow `npx tsx test/bench/profile.ts` on its own.
 if (import.meta.url === `file://${process.argv[1]}`) await run();

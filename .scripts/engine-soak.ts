@@ -27,7 +27,7 @@
  * too). Critical depths within rounding of a crown need far larger discharges than these ranges reach; the engine's
  * own property tests (test/hydraulics/properties.test.ts) cover them.
  *
- * Run: `npx tsx scripts/engine-soak.ts [--cases N] [--seed S]` (N cases per shape, default 200,000: a million in
+ * Run: `npx tsx .scripts/engine-soak.ts [--cases N] [--seed S]` (N cases per shape, default 200,000: a million in
  * all). test/robustness/engine-soak.test.ts runs the same checks on a few thousand cases.
  */
 import { pathToFileURL } from 'node:url';

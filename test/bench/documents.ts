@@ -1,7 +1,7 @@
-import '../language/polyfills/object-group-by.cjs'; // Object.groupBy for chevrotain 13 on Node 20: before Langium.
+import '../../language/polyfills/object-group-by.cjs'; // Object.groupBy for chevrotain 13 on Node 20: before Langium.
 /**
  * Document-scale speed of the language server: what one edit costs in a design of 50, 500 and 5,000 reaches with 3
- * design flows. Run with `npm run bench` (all bench modules) or `npx tsx bench/documents.ts`.
+ * design flows. Run with `npm run bench` (all bench modules) or `npx tsx test/bench/documents.ts`.
  *
  * In process (the server's own services, no connection), after one edit to a reach's slope, median of the timed
  * edits, in CPU time of this process (the machine is shared: CPU time is what the work costs, wall time also
@@ -25,9 +25,9 @@ import { performance } from 'node:perf_hooks';
 import { pathToFileURL } from 'node:url';
 import { DocumentState, URI, type LangiumDocument } from 'langium';
 import { TextDocument } from 'vscode-languageserver-textdocument';
-import { analyzeDocument, forgetAnalysis } from '../language/analysis/analyze-design.js';
-import { LspWorkspace } from '../test/server/lsp-workspace.js';
-import { TestLanguageClient, pathToUri } from '../test/server/lsp-client.js';
+import { analyzeDocument, forgetAnalysis } from '../../language/analysis/analyze-design.js';
+import { LspWorkspace } from '../server/lsp-workspace.js';
+import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
 
 const SIZES = [50, 500, 5_000] as const;
 const REACHES_PER_CHANNEL = 50;
@@ -205,7 +205,7 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
 async function measureOverProtocol(reaches: number): Promise<{ openMs: number; editMs: number }> {
   const { client } = await TestLanguageClient.start({ settings: {} });
   try {
-    const uri = pathToUri(`/bench/generated-${reaches}.runnel`);
+    const uri = pathToUri(`/test/bench/generated-${reaches}.runnel`);
     const base = generatedDesign(reaches);
     const openStart = performance.now();
     await client.open(uri, base, 1);

@@ -6,7 +6,7 @@
  * ratio to bare Node's. Target (issue 8): the CLI within 4x of bare Node.
  *
  * The bundle is dist/runnel.cjs (`npm run build`) when it exists, else one built now from the sources with the
- * options of scripts/build.mjs into a temporary folder; RUNNEL_CLI_BUNDLE=path picks another. RUNNEL_BENCH_RUNS=n
+ * options of .scripts/build.mjs into a temporary folder; RUNNEL_CLI_BUNDLE=path picks another. RUNNEL_BENCH_RUNS=n
  * changes the number of timed starts (default 21).
  * Run with `npm run bench` (all bench modules) or `npm run bench -- cold-start`.
  */
@@ -17,7 +17,7 @@ import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { build } from 'esbuild';
 
-const ROOT = join(fileURLToPath(import.meta.url), '..', '..');
+const ROOT = join(fileURLToPath(import.meta.url), '..', '..', '..');
 const DEFAULT_RUNS = 21;
 const TARGET_RATIO = 4;
 
@@ -98,7 +98,7 @@ async function cliBundle(): Promise<{ bundle: string; cleanUp: () => void; origi
   }
   const folder = mkdtempSync(join(tmpdir(), 'runnel-cold-start-'));
   const outfile = join(folder, 'runnel.cjs');
-  // The options of scripts/build.mjs for the CLI entry.
+  // The options of .scripts/build.mjs for the CLI entry.
   await build({
     entryPoints: [join(ROOT, 'server', 'cli.ts')],
     outfile,

@@ -18,20 +18,20 @@ const names = readdirSync(folder)
   .sort((a, b) => (a === 'engine' ? -1 : b === 'engine' ? 1 : a.localeCompare(b)))
   .filter((name) => requested.length === 0 || requested.includes(name));
 
-for (const unknown of requested.filter((name) => !names.includes(name))) console.error(`No bench module named '${unknown}' in bench/.`);
+for (const unknown of requested.filter((name) => !names.includes(name))) console.error(`No bench module named '${unknown}' in test/bench/.`);
 let failed = false;
 for (const name of names) {
-  console.log(`\n=== bench/${name}.ts ===\n`);
+  console.log(`\n=== test/bench/${name}.ts ===\n`);
   const module = (await import(pathToFileURL(join(folder, `${name}.ts`)).href)) as BenchModule;
   if (typeof module.run !== 'function') {
-    console.error(`bench/${name}.ts exports no run() function; skipped.`);
+    console.error(`test/bench/${name}.ts exports no run() function; skipped.`);
     failed = true;
     continue;
   }
   try {
     await module.run();
   } catch (error) {
-    console.error(`bench/${name}.ts failed: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`);
+    console.error(`test/bench/${name}.ts failed: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`);
     failed = true;
   }
 }
