@@ -12,6 +12,7 @@
 import {
   computeChannelProfile,
   describeJumpType,
+  INTERACTIVE_PROFILE_STEPS,
   profileProvenance,
   type ChannelProfile,
   type ChannelProfileResult,
@@ -49,6 +50,8 @@ export const ANALYSIS_PROFILE_STEP_CONTROL: Required<StepControl> = {
   maximumStepLengthM: 100,
   minimumStepsPerReach: 1,
   maximumDepthChangeRatio: 0.05,
+  // A bounded budget: the profile is recomputed on every keystroke and must never stall the editor.
+  maximumSteps: INTERACTIVE_PROFILE_STEPS,
 };
 
 /** What the analysis adds to the engine's statement of method when it builds a channel's profiles. */

@@ -41,7 +41,10 @@ export type CheckStatus = 'pass' | 'information' | 'warning' | 'fail';
 /**
  * One finding of the analysis. `code` is stable kebab-case (e.g. `overtopping`, `freeboard-below-required`,
  * `supercritical-flow`, `near-critical-flow`, `velocity-above-permissible`, `shear-above-permissible`,
- * `velocity-below-self-cleansing`, `conduit-over-capacity`, `conduit-two-depth-zone`, `no-normal-depth`).
+ * `velocity-below-self-cleansing`, `conduit-over-capacity`, `conduit-two-depth-zone`, `no-normal-depth`,
+ * `hydraulic-jump`, `hydraulic-jump-swept-out`, `hydraulic-jump-lining-exceeded`, `conduit-surcharged`,
+ * `profile-not-computed`; the full list is FINDING_CODES in finding-messages.ts). Over-topping and freeboard say in
+ * `data.judgedOn` whether the computed water surface ('profile') or normal depth ('normal-depth') decided them.
  */
 export interface Finding {
   readonly code: string;

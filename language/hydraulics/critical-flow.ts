@@ -73,7 +73,7 @@ export function solveCriticalDepth(section: SectionGeometry, dischargeM3s: numbe
     const message =
       outcome.failure === 'bound'
         ? `Critical depth for ${dischargeM3s.toPrecision(4)} m3/s lies at the crown to within rounding: the conduit cannot pass this flow with a free surface.`
-        : `Critical-depth iteration stopped without meeting its tolerance after ${outcome.iterations} steps (last depth ${outcome.depthM.toPrecision(6)} m).`;
+        : `Critical-depth iteration stopped without meeting its tolerance after ${outcome.iterations} steps (${Number.isFinite(outcome.depthM) ? `last depth ${outcome.depthM.toPrecision(6)} m` : 'the depth ran beyond the range of numbers the engine computes in: check the section dimensions'}).`;
     return { converged: false, reason: 'did-not-converge', message, iterations: outcome.iterations, evaluations: outcome.evaluations };
   }
   return { converged: true, depthM: outcome.depthM, iterations: outcome.iterations, evaluations: outcome.evaluations };

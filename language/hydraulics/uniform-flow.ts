@@ -136,7 +136,9 @@ export function solveNormalDepth(section: SectionGeometry, input: UniformFlowInp
   if (!(targetCubed >= SMALLEST_NORMAL_DOUBLE && Number.isFinite(targetCubed))) {
     return noNormalDepth(
       'invalid-input',
-      `Discharge, Manning's n and slope give a conveyance Q n / sqrt(S) of ${targetConveyance.toPrecision(3)} m^(8/3), outside the range the engine computes in.`,
+      Number.isFinite(targetConveyance)
+        ? `Discharge, Manning's n and slope give a conveyance Q n / sqrt(S) of ${targetConveyance.toPrecision(3)} m^(8/3), outside the range the engine computes in.`
+        : "Discharge, Manning's n and slope give a conveyance Q n / sqrt(S) too large for the engine to compute with: check Manning's n and the discharge.",
     );
   }
   let branch: 'single' | 'lower-of-two' = 'single';
@@ -178,7 +180,7 @@ export function solveNormalDepth(section: SectionGeometry, input: UniformFlowInp
     return {
       converged: false,
       reason: 'did-not-converge',
-      message: `Normal-depth iteration stopped without meeting its tolerance after ${outcome.iterations} steps (last depth ${outcome.depthM.toPrecision(6)} m).`,
+      message: `Normal-depth iteration stopped without meeting its tolerance after ${outcome.iterations} steps (${Number.isFinite(outcome.depthM) ? `last depth ${outcome.depthM.toPrecision(6)} m` : 'the depth ran beyond the range of numbers the engine computes in: check the section dimensions'}).`,
       iterations: outcome.iterations,
       evaluations: outcome.evaluations,
     };

@@ -6,7 +6,6 @@
  */
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
-import { rectangleSection, solveCriticalDepth, solveNormalDepth, trapezoidSection } from '../../language/hydraulics/index.js';
 import { renderReportHtml } from '../../language/report/report-html.js';
 import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
 
@@ -20,8 +19,6 @@ export interface KnownDefect {
   /** Runs the reproduction; true while the defect is present. */
   readonly present: () => Promise<boolean>;
 }
-
-const CFS = 0.3048 ** 3;
 
 /** The report as a reader sees it: no style block, no data attributes (raw values for scripts). */
 function shown(html: string): string {
@@ -42,31 +39,6 @@ async function sampleReport(name: string, change: (analysis: DesignAnalysis) => 
 type Writable<T> = { -readonly [K in keyof T]: T[K] };
 
 export const KNOWN_DEFECTS: readonly KnownDefect[] = [
-  {
-    id: 'engine-infinite-last-depth',
-    owner: 'engine (language/hydraulics/critical-flow.ts, uniform-flow.ts)',
-    summary:
-      'A section far too narrow to compute with (bottom width 1e-300 ft) makes the depth iterations run away: the result is "did-not-converge" ' +
-      'with "last depth Infinity m" in its message, which the analysis shows in a finding. It should be an invalid-input result in plain words.',
-    matches: (problem) => /shows '(Infinity|NaN)'.*last depth -?(Infinity|NaN) m/.test(problem),
-    present: async () => {
-      const section = rectangleSection({ bottomWidthM: 3.048e-301 });
-      const critical = solveCriticalDepth(section, 38 * CFS);
-      const normal = solveNormalDepth(section, { dischargeM3s: 38 * CFS, manningN: 0.03, bedSlope: 0.01 });
-      return (!critical.converged && /Infinity|NaN/.test(critical.message)) || (!normal.converged && /Infinity|NaN/.test(normal.message));
-    },
-  },
-  {
-    id: 'engine-infinite-conveyance-message',
-    owner: 'engine (language/hydraulics/uniform-flow.ts)',
-    summary:
-      "A Manning's n of 1.8e308 (finite, flagged only as unusual) gives the message \"a conveyance Q n / sqrt(S) of Infinity m^(8/3)\", shown in a finding.",
-    matches: (problem) => /shows '(Infinity|NaN)'.*of -?(Infinity|NaN) m\^\(8\/3\)/.test(problem),
-    present: async () => {
-      const result = solveNormalDepth(trapezoidSection({ bottomWidthM: 2, leftSideSlopeHV: 2, rightSideSlopeHV: 2 }), { dischargeM3s: 1, manningN: 1.7976931348623157e308, bedSlope: 0.01 });
-      return !result.converged && /Infinity|NaN/.test(result.message);
-    },
-  },
   {
     id: 'analysis-profile-work-unbounded',
     owner: 'water-surface profiles in the analysis (language/analysis/channel-profiles.ts, language/hydraulics/profile/standard-step.ts)',

@@ -42,7 +42,7 @@ export function computeChannelProfile(input: ChannelProfileInput): ChannelProfil
   const first = reaches[0] as ResolvedReach;
   const last = reaches[reaches.length - 1] as ResolvedReach;
   const outletStationM = last.startStationM + last.lengthM;
-  const budget = { remaining: MAXIMUM_PROFILE_STEPS };
+  const budget = { remaining: input.stepControl?.maximumSteps ?? MAXIMUM_PROFILE_STEPS };
 
   const outlet = resolveOutletStart(input.outlet, last.flow, last.downstreamInvertElevationM, last.index, outletStationM);
   if (!outlet.converged) return { converged: false, reason: 'no-outlet-depth', message: outlet.message, reachIndex: last.index, stationM: outletStationM };

@@ -39,8 +39,16 @@ export const STEP_ENERGY_TOLERANCE_M = 1e-9;
 /** Iteration cap of one step or junction solve; hitting it is reported as a failure, never hidden. */
 export const STEP_SOLVE_MAX_ITERATIONS = 200;
 
-/** Cap on the number of steps in one profile, so a degenerate input cannot run for ever. */
+/** Cap on the number of steps in one profile (all passes together), so a degenerate input cannot run for ever. */
 export const MAXIMUM_PROFILE_STEPS = 5_000_000;
+
+/**
+ * The step budget of a profile computed while an engineer types (the analysis behind the editor and the CLI):
+ * ten times a 10 km channel at 1 m steps, about 0.1 s. A profile that needs more (a reach many kilometres long
+ * with millimetre-deep flow, or a typo such as 1e9 ft) is reported as not computed and its reaches are judged on
+ * normal depth.
+ */
+export const INTERACTIVE_PROFILE_STEPS = 100_000;
 
 /**
  * A jump's station is refined until the bracket on it is shorter than this, m (or one part in 10^9 of the reach

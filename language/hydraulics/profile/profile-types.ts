@@ -62,6 +62,11 @@ export interface StepControl {
   readonly minimumStepsPerReach?: number;
   /** Largest depth change per step, as a fraction of the depth at the start of the step. */
   readonly maximumDepthChangeRatio?: number;
+  /**
+   * Most steps the whole profile may take before it is reported as not computed (default MAXIMUM_PROFILE_STEPS).
+   * Interactive callers set a smaller budget so that no input can stall the editor.
+   */
+  readonly maximumSteps?: number;
 }
 
 export interface ChannelProfileInput {
