@@ -4,8 +4,8 @@
  * the report. Any editor may send them; missing or malformed values fall back to the defaults below, so a client
  * that sends no settings gets the documented behaviour.
  *
- * Read here and nowhere else. The criteria settings (`runnel.criteria.*`) are not read: applying them needs the
- * analysis to take criteria defaults as an input, which it does not yet (see the server's final report).
+ * Read here and nowhere else. Design criteria are not editor settings: they are written in the design files
+ * (`criteria { }`), so the editor, the command line and CI always judge a design alike.
  */
 import type { LangiumSharedServices } from 'langium/lsp';
 import { Emitter, type Event } from 'vscode-languageserver';

@@ -7,7 +7,7 @@ import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { COMMAND_IDS, LANGUAGE_ID, OUTPUT_CHANNEL_NAME, REPORT_VIEW_TYPE, SERVER_BUNDLE_PATH, SETTINGS_SECTION } from '../../extension/identifiers.js';
-import { unitsOfDimension, UNIT_TABLE, type Dimension } from '../../language/units/units.js';
+import { UNIT_TABLE } from '../../language/units/units.js';
 
 const ROOT = join(import.meta.dirname, '..', '..');
 
@@ -298,7 +298,7 @@ describe('manifest: settings', () => {
     }
   });
 
-  it('offers the hint quantities, the display units and the criteria defaults the server reads', () => {
+  it('offers the hint quantities and the display units the server reads', () => {
     expect(keys).toEqual(
       expect.arrayContaining([
         'runnel.inlayHints.normalDepth',
@@ -307,9 +307,6 @@ describe('manifest: settings', () => {
         'runnel.inlayHints.froudeNumber',
         'runnel.inlayHints.maximumProfileDepth',
         'runnel.displayUnits',
-        'runnel.criteria.freeboard',
-        'runnel.criteria.nearCriticalFroudeBand',
-        'runnel.criteria.selfCleansingVelocity',
         'runnel.trace.server',
       ]),
     );
@@ -317,29 +314,8 @@ describe('manifest: settings', () => {
     expect(settings['runnel.trace.server']?.enum).toEqual(['off', 'messages', 'verbose']);
   });
 
-  it('criteria settings leave the built-in defaults in force until set, so the editor agrees with the command line', () => {
-    for (const key of keys.filter((key) => key.startsWith('runnel.criteria.'))) expect(settings[key]?.default, key).toBe('');
-  });
-
-  it('the freeboard setting takes the words of `freeboard` in a design, with every length unit and no other', () => {
-    const freeboard = settingPattern('runnel.criteria.freeboard');
-    for (const text of ['', 'none', 'usbr', 'usbr coefficient 0.5 m', '0.5 ft', ' 0.15 m ', '.5ft', '300 mm']) expect(freeboard.test(text), text).toBe(true);
-    for (const text of ['0.5', 'half a foot', '0.5 cfs', '-0.5 ft', 'usbr 0.5 m', 'fixed 0.5 ft']) expect(freeboard.test(text), text).toBe(false);
-    expectAcceptsExactlyUnitsOf(freeboard, 'length', (unit) => `1.5 ${unit}`);
-  });
-
-  it('the self-cleansing velocity setting takes a velocity with any velocity unit and no other', () => {
-    const velocity = settingPattern('runnel.criteria.selfCleansingVelocity');
-    for (const text of ['', '2 ft/s', '0.6 m/s', '2fps']) expect(velocity.test(text), text).toBe(true);
-    for (const text of ['2', 'fast', 'none']) expect(velocity.test(text), text).toBe(false);
-    expectAcceptsExactlyUnitsOf(velocity, 'velocity', (unit) => `0.9 ${unit}`);
-  });
-
-  it('the near-critical band setting takes two Froude numbers as `avoid froude` does', () => {
-    const band = settingPattern('runnel.criteria.nearCriticalFroudeBand');
-    for (const text of ['', '0.89 to 1.13', '0.8 to 1.2']) expect(band.test(text), text).toBe(true);
-    for (const text of ['0.89', '0.89 1.13', '0.89 .. 1.13', '0.89 to 1.13 ft']) expect(band.test(text), text).toBe(false);
-    expect(readText('language/runnel.langium')).toMatch(/'avoid' 'froude' low=NUMBER 'to' high=NUMBER/);
+  it('offers no criteria settings: criteria live in the design files, so the editor and the command line agree', () => {
+    expect(keys.filter((key) => key.startsWith('runnel.criteria.'))).toEqual([]);
   });
 
   it('changes editor defaults only for Runnel files', () => {
@@ -443,18 +419,6 @@ function snippetLiteralWords(body: string): string[] {
   return words;
 }
 
-function settingPattern(key: string): RegExp {
-  const pattern = settings[key]?.pattern;
-  expect(pattern, key).toBeDefined();
-  return new RegExp(pattern ?? '');
-}
-
-function expectAcceptsExactlyUnitsOf(pattern: RegExp, dimension: Dimension, write: (unit: string) => string): void {
-  const ofDimension = new Set(unitsOfDimension(dimension).flatMap((unit) => unit.spellings));
-  for (const unit of UNIT_TABLE.flatMap((definition) => definition.spellings)) {
-    expect(pattern.test(write(unit)), `${write(unit)} (${ofDimension.has(unit) ? dimension : 'another dimension'})`).toBe(ofDimension.has(unit));
-  }
-}
 
 function escapeRegExp(text: string): string {
   return text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
