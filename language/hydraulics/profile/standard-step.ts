@@ -109,17 +109,8 @@ function solveStepInto(
   const criticalDepthM = flow.criticalDepthM;
   const knownEnergyM = known.specificEnergyM;
   const knownFrictionSlope = known.frictionSlope;
-  const residualAt = (state: EnergyFrictionState): number =>
-    state.specificEnergyM - knownEnergyM + sign * (bedSlope - 0.5 * (knownFrictionSlope + state.frictionSlope)) * distanceM;
-  const solved = (depthM: number, residualM: number, iterations: number): void => {
-    out.kind = 'solved';
-    out.depthM = depthM;
-    out.residualM = residualM;
-    out.specificEnergyM = scratch.specificEnergyM;
-    out.specificEnergySlope = scratch.specificEnergySlope;
-    out.frictionSlope = scratch.frictionSlope;
-    out.iterations = iterations;
-  };
+  // g(y) of the module comment is stepResidualM(scratch, ...); module-level helpers rather than closures keep the
+  // hot loop free of per-step allocation.
 
   // The bracket's ends: the branch's ends until evaluated (critical depth; zero or the highest free-surface depth).
   let lowerM = subcritical ? criticalDepthM : 0;
@@ -134,8 +125,8 @@ function solveStepInto(
 
   for (let iteration = 1; iteration <= STEP_SOLVE_MAX_ITERATIONS; iteration++) {
     evaluateEnergyFriction(flow, depthM, scratch);
-    const residualM = residualAt(scratch);
-    if (Math.abs(residualM) <= STEP_ENERGY_TOLERANCE_M) return solved(depthM, residualM, iteration);
+    const residualM = stepResidualM(scratch, knownEnergyM, knownFrictionSlope, sign, bedSlope, distanceM);
+    if (Math.abs(residualM) <= STEP_ENERGY_TOLERANCE_M) return writeSolved(out, scratch, depthM, residualM, iteration);
     // On the subcritical branch g increases with y, on the supercritical branch it decreases.
     if (residualM < 0 === subcritical) lowerM = depthM;
     else upperM = depthM;
@@ -146,8 +137,8 @@ function solveStepInto(
         // The iterate heads off the branch: is there a root on it at all?
         branchEndChecked = true;
         evaluateEnergyFriction(flow, criticalDepthM, scratch);
-        const criticalResidualM = residualAt(scratch);
-        if (Math.abs(criticalResidualM) <= STEP_ENERGY_TOLERANCE_M) return solved(criticalDepthM, criticalResidualM, iteration);
+        const criticalResidualM = stepResidualM(scratch, knownEnergyM, knownFrictionSlope, sign, bedSlope, distanceM);
+        if (Math.abs(criticalResidualM) <= STEP_ENERGY_TOLERANCE_M) return writeSolved(out, scratch, criticalDepthM, criticalResidualM, iteration);
         if (criticalResidualM > 0) {
           // g(yc) is linear in the step length: the profile reaches yc after the direct step to it.
           const rate = sign * (bedSlope - 0.5 * (knownFrictionSlope + scratch.frictionSlope));
@@ -157,7 +148,7 @@ function solveStepInto(
         }
         if (subcritical && Number.isFinite(flow.highestFreeSurfaceDepthM) && upperM === flow.highestFreeSurfaceDepthM) {
           evaluateEnergyFriction(flow, upperM, scratch);
-          if (residualAt(scratch) < 0) {
+          if (stepResidualM(scratch, knownEnergyM, knownFrictionSlope, sign, bedSlope, distanceM) < 0) {
             out.kind = 'above-crown';
             return;
           }
@@ -168,12 +159,35 @@ function solveStepInto(
     if (Number.isFinite(upperM) && upperM - lowerM <= 4 * Number.EPSILON * upperM) {
       // The bracket cannot shrink further in double precision: the root is here to machine accuracy.
       evaluateEnergyFriction(flow, nextM, scratch);
-      return solved(nextM, residualAt(scratch), iteration);
+      return writeSolved(out, scratch, nextM, stepResidualM(scratch, knownEnergyM, knownFrictionSlope, sign, bedSlope, distanceM), iteration);
     }
     depthM = nextM;
   }
   out.kind = 'did-not-converge';
   out.depthM = depthM;
+}
+
+/** g(y) of the module comment for the depth whose values are in `state`, m. */
+function stepResidualM(
+  state: Readonly<EnergyFrictionState>,
+  knownEnergyM: number,
+  knownFrictionSlope: number,
+  sign: number,
+  bedSlope: number,
+  distanceM: number,
+): number {
+  return state.specificEnergyM - knownEnergyM + sign * (bedSlope - 0.5 * (knownFrictionSlope + state.frictionSlope)) * distanceM;
+}
+
+/** Records a solved step whose new-section values are in `state`. */
+function writeSolved(out: StepRecord, state: Readonly<EnergyFrictionState>, depthM: number, residualM: number, iterations: number): void {
+  out.kind = 'solved';
+  out.depthM = depthM;
+  out.residualM = residualM;
+  out.specificEnergyM = state.specificEnergyM;
+  out.specificEnergySlope = state.specificEnergySlope;
+  out.frictionSlope = state.frictionSlope;
+  out.iterations = iterations;
 }
 
 /** Bisection point of a bracket; an open bracket (upper infinite) is grown instead. */
