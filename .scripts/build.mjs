@@ -3,19 +3,9 @@
 // Each entry imports language/polyfills/object-group-by.cjs first (Langium 4.4 on Node 20).
 import { build } from 'esbuild';
 import { chmodSync } from 'node:fs';
+import { CLI_BANNER, NODE_BUNDLE_OPTIONS } from './bundle-options.mjs';
 
-const common = {
-  bundle: true,
-  format: 'cjs',
-  platform: 'node',
-  target: 'node20',
-  sourcemap: true,
-  minify: process.argv.includes('--minify'),
-  logLevel: 'warning',
-  // Langium and its dependencies ship ESM that reads import.meta.url in a few places; map it for CJS output.
-  define: { 'import.meta.url': 'importMetaUrl' },
-  banner: { js: "const importMetaUrl = require('url').pathToFileURL(__filename).href;" },
-};
+const common = { ...NODE_BUNDLE_OPTIONS, minify: process.argv.includes('--minify') };
 
 await Promise.all([
   build({ ...common, entryPoints: ['server/language-server.ts'], outfile: 'dist/server.cjs' }),
@@ -23,7 +13,7 @@ await Promise.all([
     ...common,
     entryPoints: ['server/cli.ts'],
     outfile: 'dist/runnel.cjs',
-    banner: { js: `#!/usr/bin/env node\n${common.banner.js}` },
+    banner: CLI_BANNER,
   }),
   build({ ...common, entryPoints: ['extension/extension.ts'], outfile: 'dist/extension.cjs', external: ['vscode'] }),
 ]);

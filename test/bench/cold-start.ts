@@ -16,6 +16,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { build } from 'esbuild';
+import { CLI_BANNER, NODE_BUNDLE_OPTIONS } from '../../.scripts/bundle-options.mjs';
 
 const ROOT = join(fileURLToPath(import.meta.url), '..', '..', '..');
 const DEFAULT_RUNS = 21;
@@ -98,19 +99,7 @@ async function cliBundle(): Promise<{ bundle: string; cleanUp: () => void; origi
   }
   const folder = mkdtempSync(join(tmpdir(), 'runnel-cold-start-'));
   const outfile = join(folder, 'runnel.cjs');
-  // The options of .scripts/build.mjs for the CLI entry.
-  await build({
-    entryPoints: [join(ROOT, 'server', 'cli.ts')],
-    outfile,
-    bundle: true,
-    format: 'cjs',
-    platform: 'node',
-    target: 'node20',
-    sourcemap: true,
-    logLevel: 'warning',
-    define: { 'import.meta.url': 'importMetaUrl' },
-    banner: { js: "#!/usr/bin/env node\nconst importMetaUrl = require('url').pathToFileURL(__filename).href;" },
-  });
+  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'cli.ts')], outfile, banner: CLI_BANNER });
   return { bundle: outfile, cleanUp: () => rmSync(folder, { recursive: true, force: true }), origin: 'built now from the sources (no dist/runnel.cjs)' };
 }
 

@@ -8,6 +8,7 @@ import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve as resolvePath } from 'node:path';
 import { build } from 'esbuild';
+import { NODE_BUNDLE_OPTIONS } from '../../.scripts/bundle-options.mjs';
 
 export const REPOSITORY_ROOT = join(import.meta.dirname, '..', '..');
 
@@ -34,17 +35,6 @@ async function buildBundle(): Promise<string> {
     rmSync(outfile, { force: true });
     rmSync(`${outfile}.map`, { force: true });
   });
-  await build({
-    entryPoints: [join(REPOSITORY_ROOT, 'server', 'language-server.ts')],
-    outfile,
-    bundle: true,
-    format: 'cjs',
-    platform: 'node',
-    target: 'node20',
-    sourcemap: true,
-    logLevel: 'warning',
-    define: { 'import.meta.url': 'importMetaUrl' },
-    banner: { js: "const importMetaUrl = require('url').pathToFileURL(__filename).href;" },
-  });
+  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(REPOSITORY_ROOT, 'server', 'language-server.ts')], outfile });
   return outfile;
 }

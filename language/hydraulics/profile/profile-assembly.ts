@@ -124,7 +124,10 @@ export function assembleProfile(
   }
 
   const segments = classifySegments(reaches, points, steps);
-  const summaries = reaches.map((reach) => summariseReach(reach, points, segments));
+  // A reach's points are contiguous: each summary reads only its own slice.
+  const summaries = reaches.map((reach, position) =>
+    summariseReach(reach, points, firstPointOfReach[position] ?? points.length, firstPointOfReach[position + 1] ?? points.length, segments),
+  );
   return { converged: true, points, steps, segments, reaches: summaries, maximumEnergyResidualM };
 }
 
@@ -193,7 +196,14 @@ function classifySegments(reaches: readonly ResolvedReach[], points: readonly Pr
   return segments;
 }
 
-function summariseReach(reach: ResolvedReach, points: readonly ProfilePoint[], segments: readonly ProfileSegment[]): ReachProfileSummary {
+/** Summary of one reach from its points, points[fromIndex] up to (not including) points[toIndex]. */
+function summariseReach(
+  reach: ResolvedReach,
+  points: readonly ProfilePoint[],
+  fromIndex: number,
+  toIndex: number,
+  segments: readonly ProfileSegment[],
+): ReachProfileSummary {
   const bankHeightM = reach.input.bankHeightM;
   let maximumDepthM = Number.NEGATIVE_INFINITY;
   let maximumDepthStationM = reach.startStationM;
@@ -202,7 +212,8 @@ function summariseReach(reach: ResolvedReach, points: readonly ProfilePoint[], s
   const overtoppedRanges: StationRange[] = [];
   let openRangeFromM: number | undefined;
   let previous: ProfilePoint | undefined;
-  for (const point of points) {
+  for (let index = fromIndex; index < toIndex; index++) {
+    const point = points[index] as ProfilePoint;
     if (point.reachIndex !== reach.index) continue;
     if (point.depthM > maximumDepthM) {
       maximumDepthM = point.depthM;
