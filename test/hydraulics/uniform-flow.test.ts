@@ -77,7 +77,7 @@ describe('published uniform-flow examples (US customary)', () => {
   it('N2: b = 20 ft, z = 1.5, y = 4 ft, n = 0.025, S = 0.0016 carries 519 cfs (k = 1.49)', () => {
     const section = trapezoidSection({ bottomWidthM: 20 * FOOT_M, leftSideSlopeHV: 1.5, rightSideSlopeHV: 1.5 });
     const engineCfs = fromSI(manningDischargeM3s(section, 4 * FOOT_M, 0.025, 0.0016), 'cfs') * (BOOK_K / US_K_FROM_UNITS);
-    // Secondary, low-confidence transcription: 1% covers a mis-rounded or mis-copied last digit, nothing more.
+    // Secondary, low-confidence third-party copy: 1% covers a mis-rounded or mis-copied last digit, nothing more.
     expectRelative({ id: 'N2', source: CHOW_N2, input: 'b = 20 ft, z = 1.5, y = 4 ft, n = 0.025, S = 0.0016, k = 1.49', value: engineCfs, expected: 519, relativeTolerance: 0.01, unit: 'cfs' });
   });
 });
