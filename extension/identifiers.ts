@@ -7,8 +7,8 @@
 /** The language id of `.runnel` design files (package.json `contributes.languages`). */
 export const LANGUAGE_ID = 'runnel';
 
-/** The settings section the language server reads through `workspace/configuration`. */
-export const SETTINGS_SECTION = 'runnel';
+/** The settings section the language server reads through `workspace/configuration` (typed in server/protocol.ts). */
+export { SETTINGS_SECTION } from '../server/protocol.js';
 
 /** The webview type of the report panel; restoring panels after a reload needs `onWebviewPanel:<this>`. */
 export const REPORT_VIEW_TYPE = 'runnel.report';

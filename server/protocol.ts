@@ -3,6 +3,9 @@
  * (server/ and extension/). Plain data only: no imports, so either bundle can include it.
  */
 
+/** The configuration section the server reads through workspace/configuration (`runnel.*` settings). */
+export const SETTINGS_SECTION = 'runnel';
+
 /** Request: render the live report of a document as one self-contained HTML page. */
 export const RENDER_REPORT_REQUEST = 'runnel/renderReport';
 export interface RenderReportParams {

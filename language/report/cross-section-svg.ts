@@ -12,14 +12,9 @@ import { displayUnit, displayValue, formatQuantity } from './format.js';
 import { DRAWING_WORDS } from './report-wording.js';
 import { sectionGeometryFromResult } from './section-from-result.js';
 import { clipPolygonBelow, sectionBoundaryM, surfaceEdgesM, type PointM } from './section-outline.js';
-import { linearScale, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, spreadLabels, type PlotArea } from './svg-scale.js';
+import { linearScale, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, spreadLabels, type DrawingOptions, type PlotArea } from './svg-scale.js';
 
-export interface CrossSectionOptions {
-  /** Unique id of the drawing in its document (used for its title and hatch pattern ids). */
-  readonly id: string;
-  /** Design flow order, for consistent flow colours (see flow-colours.ts). */
-  readonly flowOrder?: readonly string[];
-}
+export type CrossSectionOptions = DrawingOptions;
 
 const DRAWING_WIDTH = 720;
 const PLOT_LEFT = 70;

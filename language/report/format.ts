@@ -22,12 +22,6 @@ export function formatSignificant(value: number | null | undefined, significantF
   if (value === 0) return '0';
   const magnitude = Math.abs(value);
   if (magnitude >= 1e15 || magnitude < 1e-6) return formatExponent(value, significantFigures);
-  // Fast path with the same result as formatNumber below 10^4 (where it groups no digits): its locale formatting
-  // costs about 10 microseconds a call, which a report of thousands of reaches makes several seconds. The equality
-  // is checked over random values in test/report/format.test.ts.
-  const decimals = Math.min(Math.max(0, significantFigures - 1 - Math.floor(Math.log10(magnitude))), 10);
-  const rounded = Number(value.toFixed(decimals));
-  if (Math.abs(rounded) < 10_000) return normaliseNegativeZero(String(rounded));
   return normaliseNegativeZero(formatNumber(value, significantFigures));
 }
 

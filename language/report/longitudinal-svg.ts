@@ -15,17 +15,12 @@ import { flowColourClass } from './flow-colours.js';
 import { displayUnit, displayValue, formatElevation, formatSignificant } from './format.js';
 import { drawnProfilesOf } from './profile-overlay.js';
 import { DRAWING_WORDS } from './report-wording.js';
-import { linearScale, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, type PlotArea } from './svg-scale.js';
+import { linearScale, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, type DrawingOptions, type PlotArea } from './svg-scale.js';
 
-export interface LongitudinalOptions {
-  /** Unique id of the drawing in its document. */
-  readonly id: string;
-  /** Design flow order, for consistent flow colours. */
-  readonly flowOrder?: readonly string[];
-}
+export type LongitudinalOptions = DrawingOptions;
 
 const DRAWING_WIDTH = 960;
-const PLOT: PlotArea = { left: 78, top: 34, width: 960 - 78 - 40, height: 250 };
+const PLOT: PlotArea = { left: 78, top: 34, width: DRAWING_WIDTH - 78 - 40, height: 250 };
 const LEGEND_TOP_GAP = 56;
 const LEGEND_ROW_HEIGHT = 17;
 /** Approximate width of one label character at the drawing's font size, px (for fitting reach names). */

@@ -12,17 +12,12 @@ import { flowColourClass } from './flow-colours.js';
 import { displayUnit, displayValue, formatQuantity } from './format.js';
 import { DRAWING_WORDS } from './report-wording.js';
 import { sectionGeometryFromResult } from './section-from-result.js';
-import { linearScale, niceCeiling, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, type PlotArea } from './svg-scale.js';
+import { linearScale, niceCeiling, niceTicks, openSvg, pathThrough, px, renderAxes, renderNotDrawnSvg, type DrawingOptions, type PlotArea } from './svg-scale.js';
 
-export interface RatingCurveOptions {
-  /** Unique id of the drawing in its document. */
-  readonly id: string;
-  /** Design flow order, for consistent flow colours. */
-  readonly flowOrder?: readonly string[];
-}
+export type RatingCurveOptions = DrawingOptions;
 
 const DRAWING_WIDTH = 720;
-const PLOT: PlotArea = { left: 72, top: 16, width: 720 - 72 - 26, height: 250 };
+const PLOT: PlotArea = { left: 72, top: 16, width: DRAWING_WIDTH - 72 - 26, height: 250 };
 const LEGEND_TOP_GAP = 56;
 const LEGEND_ROW_HEIGHT = 17;
 const LEGEND_COLUMN_WIDTH = 311;

@@ -7,6 +7,14 @@
 import { escapeHtml } from './escape.js';
 
 /** Where the plotting area lies inside the drawing, px (SVG user units). */
+/** Options every drawing takes. */
+export interface DrawingOptions {
+  /** Unique id of the drawing in its document (used for its title and pattern ids). */
+  readonly id: string;
+  /** Design flow order, for consistent flow colours (see flow-colours.ts). */
+  readonly flowOrder?: readonly string[];
+}
+
 export interface PlotArea {
   readonly left: number;
   readonly top: number;

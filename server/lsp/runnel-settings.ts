@@ -9,9 +9,10 @@
  */
 import type { LangiumSharedServices } from 'langium/lsp';
 import { Emitter, type Event } from 'vscode-languageserver';
+import { SETTINGS_SECTION } from '../protocol.js';
 
-/** The settings section, as in the extension's `SETTINGS_SECTION` and package.json. */
-export const SETTINGS_SECTION = 'runnel';
+/** The settings section, typed once in server/protocol.ts for the server and the extension. */
+export { SETTINGS_SECTION };
 
 /** Which results an inlay hint shows (`runnel.inlayHints.*`). */
 export interface HintQuantities {
