@@ -9,7 +9,7 @@
  * hints, hover, the report and the CLI all read this one result. Nothing here throws on user input: a reach the
  * file leaves incomplete is listed in `incompleteReaches` and validation says why.
  */
-import { AstUtils, type AstNode, type LangiumDocument } from 'langium';
+import { AstUtils, DocumentState, isReference, type AstNode, type LangiumDocument } from 'langium';
 import {
   isLibraryHeader,
   isNote,
@@ -56,7 +56,8 @@ import {
   type ResolvedSection,
 } from './design-inputs.js';
 import { FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
-import { computeChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
+import { computeChannelProfiles, forgetChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
+import { channelKey, designContextKey, forgetChannelMemos, keepChannelMemo, openChannelMemo, type ChannelMemo } from './channel-memo.js';
 import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
 import type {
   ChannelResult,
@@ -89,19 +90,34 @@ import { locationOf, propertyLocationOf } from './source-locations.js';
 export function analyzeDocument(document: LangiumDocument): DesignAnalysis {
   const root = document.parseResult.value;
   const version = document.textDocument.version;
-  const dependencies = isRunnelFile(root) ? resolvedDependencies(root) : [root];
+  const dependencies = isRunnelFile(root) ? resolvedDependencies(document, root) : [root];
   const cached = analysisCache.get(document);
   if (cached !== undefined && cached.version === version && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
-  const memo = openProfileMemo(document);
+  const memo: AnalysisMemo = { profiles: openProfileMemo(document), channels: openChannelMemo(document) };
   const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo) : emptyAnalysis(document.uri.toString(), version);
-  keepProfileMemo(document, memo);
+  keepProfileMemo(document, memo.profiles);
+  keepChannelMemo(document, memo.channels);
   analysisCache.set(document, { version, dependencies, analysis });
   return analysis;
 }
 
-/** Forgets a cached analysis (tests and benchmarks use it to time a fresh computation). */
-export function forgetAnalysis(document: LangiumDocument): void {
+/**
+ * Forgets a cached analysis, so the next call computes it again (tests and benchmarks use it to time a fresh
+ * computation). The channels and profiles remembered from the previous version stay available, as they are to the
+ * server after an edit, unless `everything` is set: then the next analysis computes the whole design from scratch.
+ */
+export function forgetAnalysis(document: LangiumDocument, { everything = false }: { everything?: boolean } = {}): void {
   analysisCache.delete(document);
+  if (everything) {
+    forgetChannelMemos();
+    forgetChannelProfiles();
+  }
+}
+
+/** What an analysis may take over from the document's previous one (channel-memo.ts, channel-profiles.ts). */
+interface AnalysisMemo {
+  readonly profiles: ProfileMemo;
+  readonly channels: ChannelMemo;
 }
 
 /** Severity to status: the worst finding decides. */
@@ -137,9 +153,20 @@ interface CacheEntry {
 
 const analysisCache = new WeakMap<LangiumDocument, CacheEntry>();
 
-/** The root and every section and lining the reaches resolve to: if any of them is replaced, recompute. */
-function resolvedDependencies(file: RunnelFile): AstNode[] {
+/**
+ * The root and every node the file's references resolve to (sections, linings, flows, possibly in other files): if
+ * any of them is replaced, recompute. A linked document lists its references (Langium relinks it, and so refills the
+ * list, whenever a file it uses changes); before linking, the reaches are asked one by one.
+ */
+function resolvedDependencies(document: LangiumDocument, file: RunnelFile): AstNode[] {
   const nodes: AstNode[] = [file];
+  if (document.state >= DocumentState.Linked) {
+    for (const reference of document.references) {
+      const target = isReference(reference) ? reference.ref : undefined;
+      if (target !== undefined) nodes.push(target);
+    }
+    return nodes;
+  }
   for (const channel of designChannels(file)) {
     for (const member of channel.members ?? []) {
       if (!isReach(member)) continue;
@@ -180,14 +207,29 @@ function emptyAnalysis(uri: string, version: number): DesignAnalysis {
   };
 }
 
-function analyzeFile(file: RunnelFile, uri: string, version: number, memo: ProfileMemo): DesignAnalysis {
+function analyzeFile(file: RunnelFile, uri: string, version: number, memo: AnalysisMemo): DesignAnalysis {
   const { system, origin } = displayUnitsOf(file);
   const formatter = new MessageFormatter(system);
   const criteriaBlocks = designCriteriaBlocks(file);
   const flows = designFlows(file);
   const incompleteReaches: IncompleteReach[] = [];
-  const channels = designChannels(file).map((channel) => analyzeChannel(channel, flows, criteriaBlocks, system, formatter, incompleteReaches, memo));
-  const findings = channels.flatMap((channel) => channel.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)));
+  const contextKey = designContextKey(file, system, '');
+  const channelFindings: (readonly Finding[])[] = [];
+  const channels = designChannels(file).map((channel) => {
+    // A channel whose inputs did not change since the previous version keeps its results (channel-memo.ts).
+    const key = channelKey(channel, contextKey, memo.channels);
+    let remembered = memo.channels.previous?.get(key) ?? memo.channels.next.get(key);
+    if (remembered === undefined) {
+      const leftOut: IncompleteReach[] = [];
+      const result = analyzeChannel(channel, flows, criteriaBlocks, system, formatter, leftOut, memo.profiles);
+      remembered = { result, incompleteReaches: leftOut, findings: result.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)) };
+    }
+    memo.channels.next.set(key, remembered);
+    incompleteReaches.push(...remembered.incompleteReaches);
+    channelFindings.push(remembered.findings);
+    return remembered.result;
+  });
+  const findings = channelFindings.flat();
   const header = file.header;
   return {
     uri,

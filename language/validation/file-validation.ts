@@ -1,7 +1,7 @@
 /**
  * The file as a whole: its header, its display-units setting, what a library may hold, and strings left open.
  */
-import { CstUtils, type ValidationAcceptor, type ValidationChecks } from 'langium';
+import { CstUtils, isCompositeCstNode, isLeafCstNode, type CstNode, type LeafCstNode, type ValidationAcceptor, type ValidationChecks } from 'langium';
 import { isChannel, isCriteria, isFlowTable, isLibraryHeader, isUnitsSetting, type RunnelAstType, type RunnelFile, type UnitsSetting } from '../generated/ast.js';
 import { isClosedString } from '../parser/runnel-value-converter.js';
 import { closestName } from './closest-name.js';
@@ -13,10 +13,19 @@ const DISPLAY_SYSTEMS = ['SI', 'US'] as const;
 export function stringsMustBeClosed(file: RunnelFile, accept: ValidationAcceptor): void {
   const rootCst = file.$cstNode;
   if (rootCst === undefined) return;
-  for (const leaf of CstUtils.flattenCst(rootCst)) {
+  forEachLeaf(rootCst, (leaf) => {
     if (leaf.tokenType.name === 'STRING' && !isClosedString(leaf.text)) {
       report(accept, DIAGNOSTICS.stringNotClosed, {}, { node: leaf.astNode, range: leaf.range });
     }
+  });
+}
+
+/** Every token of the syntax tree in order; CstUtils.flattenCst without its stream objects (this runs on every edit). */
+function forEachLeaf(node: CstNode, visit: (leaf: LeafCstNode) => void): void {
+  if (isCompositeCstNode(node)) {
+    for (const child of node.content) forEachLeaf(child, visit);
+  } else if (isLeafCstNode(node)) {
+    visit(node);
   }
 }
 

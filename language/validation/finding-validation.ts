@@ -5,11 +5,11 @@
  *
  * `no-normal-depth` is not repeated here: validation already reports the slope that causes it, once, at the slope.
  */
-import { AstUtils, type ValidationAcceptor, type ValidationChecks, type ValidationSeverity } from 'langium';
+import { AstUtils, type DiagnosticInfo, type ValidationAcceptor, type ValidationChecks, type ValidationSeverity } from 'langium';
 import type { RunnelAstType, RunnelFile } from '../generated/ast.js';
 import { analyzeDocument } from '../analysis/analyze-design.js';
 import { FINDING_CODES } from '../analysis/finding-messages.js';
-import type { Severity } from '../analysis/model.js';
+import type { Finding, Severity } from '../analysis/model.js';
 
 const SEVERITY: Readonly<Record<Severity, ValidationSeverity>> = { error: 'error', warning: 'warning', information: 'info' };
 
@@ -20,14 +20,30 @@ export function designShouldPassItsChecks(file: RunnelFile, accept: ValidationAc
   const analysis = analyzeDocument(AstUtils.getDocument(file));
   for (const finding of analysis.findings) {
     if (REPORTED_BY_VALIDATION.has(finding.code)) continue;
-    accept(SEVERITY[finding.severity], finding.message, {
-      node: file,
+    accept(SEVERITY[finding.severity], finding.message, { node: file, ...diagnosticPartsOf(finding) });
+  }
+}
+
+type DiagnosticParts = Pick<DiagnosticInfo<RunnelFile>, 'range' | 'code' | 'data' | 'relatedInformation'>;
+
+/**
+ * What a finding's diagnostic carries besides its message and severity, made once per finding: an edit keeps the
+ * results of the channels it did not touch (analysis/channel-memo.ts), and with them their findings and these.
+ */
+const diagnosticParts = new WeakMap<Finding, DiagnosticParts>();
+
+function diagnosticPartsOf(finding: Finding): DiagnosticParts {
+  let parts = diagnosticParts.get(finding);
+  if (parts === undefined) {
+    parts = {
       range: finding.location.range,
       code: finding.code,
       data: { code: finding.code, source: 'analysis', channel: finding.channel, reach: finding.reach, flow: finding.flow, ...finding.data },
       relatedInformation: finding.related.map((related) => ({ message: related.message, location: { uri: related.location.uri, range: related.location.range } })),
-    });
+    };
+    diagnosticParts.set(finding, parts);
   }
+  return parts;
 }
 
 export const findingChecks: ValidationChecks<RunnelAstType> = {

@@ -6,6 +6,12 @@
 import {
   Cancellation,
   DefaultDocumentValidator,
+  interruptAndCheck,
+  isAstNode,
+  type AstNode,
+  type ValidationAcceptor,
+  type ValidationCategory,
+  type ValidationCheck,
   type DocumentValidator,
   type LangiumCoreServices,
   type LangiumDocument,
@@ -28,6 +34,35 @@ export class RunnelDocumentValidator extends DefaultDocumentValidator {
     this.scopeProvider = services.references.ScopeProvider;
     const reflection = services.shared.AstReflection;
     this.referenceTypeOf = (info) => reflection.getReferenceType(info);
+  }
+
+  /**
+   * Langium's walk over every node, without its per-node streams: the same nodes in the same order, the same checks
+   * (taken from the registry once per node type instead of once per node), the same cancellation points. A
+   * 500-reach design has some 10,000 nodes and is validated after every edit; the streams cost more than the checks.
+   * With a profiler attached, Langium's own walk runs (it times each node type).
+   */
+  protected override async validateAstNodes(rootNode: AstNode, options: ValidationOptions, acceptor: ValidationAcceptor, cancelToken: Cancellation.CancellationToken = Cancellation.CancellationToken.None): Promise<void> {
+    if (this.profiler?.isActive('validating') === true) return super.validateAstNodes(rootNode, options, acceptor, cancelToken);
+    const checksByType = new Map<string, readonly ValidationCheck[]>();
+    const checksOf = (type: string): readonly ValidationCheck[] => {
+      let checks = checksByType.get(type);
+      if (checks === undefined) {
+        checks = this.validationRegistry.getChecks(type, options.categories as ValidationCategory[] | undefined).toArray();
+        checksByType.set(type, checks);
+      }
+      return checks;
+    };
+    const visit = async (node: AstNode): Promise<void> => {
+      await interruptAndCheck(cancelToken);
+      const nodeOptions = this.validateSingleNodeOptions(node, options);
+      if (nodeOptions.validateNode) {
+        for (const check of checksOf(node.$type)) await check(node, acceptor, cancelToken);
+      }
+      if (!nodeOptions.validateChildren) return;
+      for (const child of childNodes(node)) await visit(child);
+    };
+    await visit(rootNode);
   }
 
   /** Syntax errors get their code (`lexing-error`, `parsing-error`) in `code` as well as in `data.code`, like every other diagnostic. */
@@ -72,4 +107,19 @@ export class RunnelDocumentValidator extends DefaultDocumentValidator {
       );
     }
   }
+}
+
+/** The nodes a node contains directly, in property order (as Langium's streamContents yields them). */
+function childNodes(node: AstNode): AstNode[] {
+  const children: AstNode[] = [];
+  for (const property of Object.keys(node)) {
+    if (property.startsWith('$')) continue;
+    const value: unknown = (node as unknown as Record<string, unknown>)[property];
+    if (Array.isArray(value)) {
+      for (const item of value) if (isAstNode(item)) children.push(item);
+    } else if (isAstNode(value)) {
+      children.push(value);
+    }
+  }
+  return children;
 }

@@ -33,17 +33,33 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
     const analysis = this.analyses.of(document);
     const system = displaySystemFor(analysis, settings);
     const hints: InlayHint[] = [];
+    const choiceKey = `${document.uri.toString()}|${system}|${JSON.stringify(show)}`;
     for (const channel of (root.members ?? []).filter(isChannel)) {
       for (const reach of (channel.members ?? []).filter(isReach)) {
         const range = reach.$cstNode?.range;
         if (range === undefined || !overlaps(range, params.range)) continue;
         const result = reachResultOf(analysis, reach);
         if (result === undefined) continue;
-        hints.push(...reachHints(document, reach, result, system, show));
+        hints.push(...rememberedReachHints(document, reach, result, system, show, choiceKey));
       }
     }
     return hints;
   }
+}
+
+/**
+ * The hints of a reach result, made once per result and display choice. A result is the same object only while
+ * its reach has the same text at the same place (analysis/channel-memo.ts), so its hints, positions included,
+ * are the same too: after an edit only the edited channel's hints are made again.
+ */
+const hintsByResult = new WeakMap<ReachResult, { readonly key: string; readonly hints: readonly InlayHint[] }>();
+
+function rememberedReachHints(document: LangiumDocument, reach: Reach, result: ReachResult, system: UnitSystem, show: HintQuantities, key: string): readonly InlayHint[] {
+  const remembered = hintsByResult.get(result);
+  if (remembered !== undefined && remembered.key === key) return remembered.hints;
+  const hints = reachHints(document, reach, result, system, show);
+  hintsByResult.set(result, { key, hints });
+  return hints;
 }
 
 /** The hints of one reach: design flows at the end of its first line, its own flows after their values. */

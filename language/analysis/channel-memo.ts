@@ -1,0 +1,118 @@
+/**
+ * Channel results carried from one analysis of a document to the next. An edit usually touches one channel: the
+ * others have the same text at the same place, link to the same sections, linings and flows, and sit under the same
+ * flow tables, criteria and display units, so their results are the same objects as before. Each channel's result
+ * is remembered under a key made of everything it is computed from:
+ * - the design context: the display units, and the text and position of every flow table and design criteria block
+ *   (flows apply at the head of every channel; a finding points at the flow that sets its discharge);
+ * - the channel's own text and the position of its first token: together they fix every range inside it;
+ * - every node a reference inside the channel resolves to (sections, linings, flows, possibly in another file):
+ *   its document, position and text, or "unresolved".
+ * Equal keys mean equal inputs, so a remembered result is the result the computation would give; the incremental
+ * analysis is checked against a fresh one after random edits (test/analysis/incremental-analysis.test.ts).
+ * Results are never modified, so sharing them between analyses is safe; only the last analysis' channels are kept.
+ */
+import { isAstNode, isMultiReference, isReference, type AstNode, type MultiReference, type Reference } from 'langium';
+import { isFlowTable, type Channel, type RunnelFile } from '../generated/ast.js';
+import { designCriteriaBlocks } from './design-inputs.js';
+import type { ChannelResult, Finding, IncompleteReach } from './model.js';
+import { documentUriOf } from './source-locations.js';
+
+/** A channel's result and the reaches of it the analysis left out. */
+export interface RememberedChannel {
+  readonly result: ChannelResult;
+  readonly incompleteReaches: readonly IncompleteReach[];
+  /** Every finding of the channel, in document order. */
+  readonly findings: readonly Finding[];
+}
+
+export interface ChannelMemo {
+  /** The channels of the document's previous analysis; undefined for its first. */
+  readonly previous: ReadonlyMap<string, RememberedChannel> | undefined;
+  /** The channels of this analysis, filled as they are computed or taken over. */
+  readonly next: Map<string, RememberedChannel>;
+  /** Keys of nodes that references resolve to, computed once per analysis. */
+  readonly targetKeys: Map<AstNode, string>;
+}
+
+let memosByDocument = new WeakMap<object, ReadonlyMap<string, RememberedChannel>>();
+let unrememberedCount = 0;
+
+/** Opens the memo of an analysis of `document` (any object standing for it); `keepChannelMemo` closes it. */
+export function openChannelMemo(document: object): ChannelMemo {
+  return { previous: memosByDocument.get(document), next: new Map(), targetKeys: new Map() };
+}
+
+/** Keeps this analysis' channels for the document's next analysis. */
+export function keepChannelMemo(document: object, memo: ChannelMemo): void {
+  memosByDocument.set(document, memo.next);
+}
+
+/** Forgets every remembered channel (benchmarks and tests use it to time or check a fresh computation). */
+export function forgetChannelMemos(): void {
+  memosByDocument = new WeakMap();
+}
+
+/** The part of every channel's key that the design as a whole contributes (see the module comment). */
+export function designContextKey(file: RunnelFile, displayUnits: string, extra: string): string {
+  const parts = [displayUnits, extra];
+  for (const member of file.members ?? []) {
+    if (isFlowTable(member)) parts.push(placedText(member));
+  }
+  for (const block of designCriteriaBlocks(file)) parts.push(placedText(block));
+  return parts.join('\u0000');
+}
+
+/** The key of a channel in a design context (see the module comment). */
+export function channelKey(channel: Channel, contextKey: string, memo: ChannelMemo): string {
+  const parts = [contextKey, placedText(channel)];
+  visitReferences(channel, (reference) => {
+    if (!isReference(reference)) {
+      // Runnel's grammar has single references only; should another kind appear, the channel is never reused.
+      parts.push(`not-remembered-${unrememberedCount++}`);
+      return;
+    }
+    const target = reference.ref;
+    if (target === undefined) {
+      parts.push('unresolved');
+      return;
+    }
+    let key = memo.targetKeys.get(target);
+    if (key === undefined) {
+      key = `${documentUriOf(target)}\u0001${placedText(target)}`;
+      memo.targetKeys.set(target, key);
+    }
+    parts.push(key);
+  });
+  return parts.join('\u0000');
+}
+
+/**
+ * Every reference in a node and the nodes it contains, in document order. The walk over the node's own properties
+ * does what AstUtils.streamAst + streamReferences do, without their iterator objects: it runs once per channel
+ * per edit, so it is on the path the speed budget measures.
+ */
+function visitReferences(node: AstNode, visit: (reference: Reference | MultiReference) => void): void {
+  for (const property of Object.keys(node)) {
+    if (property.startsWith('$')) continue;
+    const value: unknown = (node as unknown as Record<string, unknown>)[property];
+    if (Array.isArray(value)) {
+      for (const item of value) visitValue(item, visit);
+    } else {
+      visitValue(value, visit);
+    }
+  }
+}
+
+function visitValue(value: unknown, visit: (reference: Reference | MultiReference) => void): void {
+  if (isReference(value) || isMultiReference(value)) visit(value);
+  else if (isAstNode(value)) visitReferences(value, visit);
+}
+
+/** A node's first-token position and text: equal for two nodes means equal content at the same place. */
+function placedText(node: AstNode): string {
+  const cst = node.$cstNode;
+  if (cst === undefined) return 'no-text';
+  const start = cst.range.start;
+  return `${start.line}:${start.character}\u0001${cst.text}`;
+}

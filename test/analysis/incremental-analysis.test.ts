@@ -1,0 +1,127 @@
+/**
+ * After an edit the analysis takes over the results of the channels the edit did not touch
+ * (language/analysis/channel-memo.ts). Whatever the edits, that must give exactly the analysis a fresh computation
+ * gives: for random sequences of edits to the samples and to a multi-channel design (numbers changed, lines
+ * deleted, duplicated or inserted, columns shifted, the shared linings file changed), the editor's analysis after
+ * each edit equals, field for field, the analysis of the same files in a workspace that has never seen them.
+ * fast-check prints the seed and the shrunk edit sequence of a failure.
+ */
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import type { DesignAnalysis } from '../../language/analysis/model.js';
+import { LspWorkspace, memoryUri, sampleTexts } from '../server/lsp-workspace.js';
+
+/** Three channels sharing sections and linings: an edit to one leaves two to be taken over. */
+const THREE_CHANNELS = [
+  'design "Three ditches"',
+  'units US',
+  'criteria {\n  freeboard 0.5 ft\n}',
+  'flows {\n  q10 = 12 cfs "10-year"\n  q100 = 30 cfs "100-year"\n}',
+  'section ditch trapezoid {\n  bottom width 2 ft\n  side slopes 3:1\n  bank height 2 ft\n}',
+  'section culvert circle {\n  diameter 24 in\n}',
+  'lining grass {\n  n 0.035\n  permissible shear 1.0 psf\n}',
+  'lining concrete {\n  n 0.013\n  permissible velocity 12 ft/s\n}',
+  ...['north', 'middle', 'south'].map(
+    (name, index) =>
+      `channel ${name} {\n` +
+      `  reach ${name}1 {\n    section ditch\n    lining grass\n    slope ${0.4 + index} %\n    length 200 ft\n  }\n` +
+      `  reach ${name}2 {\n    section culvert\n    lining concrete\n    slope ${2 - index * 0.5} %\n    length 80 ft\n  }\n` +
+      `  reach ${name}3 {\n    section ditch\n    lining grass\n    slope 0.3 %\n    length 150 ft\n  }\n` +
+      '  outlet free fall\n}',
+  ),
+].join('\n');
+
+type Edit =
+  | { readonly kind: 'number'; readonly file: number; readonly at: number; readonly value: string }
+  | { readonly kind: 'delete-line' | 'duplicate-line' | 'insert-blank-line' | 'indent-line'; readonly file: number; readonly at: number };
+
+const NUMBERS = ['0', '0.013', '0.05', '0.5', '1', '1.35', '3', '24', '250', '-1'];
+
+const editArbitrary: fc.Arbitrary<Edit> = fc.oneof(
+  fc.record({ kind: fc.constant('number' as const), file: fc.nat(), at: fc.nat(), value: fc.constantFrom(...NUMBERS) }),
+  fc.record({ kind: fc.constantFrom('delete-line' as const, 'duplicate-line' as const, 'insert-blank-line' as const, 'indent-line' as const), file: fc.nat(), at: fc.nat() }),
+);
+
+function applyEdit(text: string, edit: Edit): string {
+  if (edit.kind === 'number') {
+    const numbers = [...text.matchAll(/\d+(\.\d+)?/g)];
+    const match = numbers[edit.at % Math.max(1, numbers.length)];
+    if (match?.index === undefined) return text;
+    return `${text.slice(0, match.index)}${edit.value}${text.slice(match.index + match[0].length)}`;
+  }
+  const lines = text.split('\n');
+  const index = edit.at % lines.length;
+  switch (edit.kind) {
+    case 'delete-line':
+      lines.splice(index, 1);
+      break;
+    case 'duplicate-line':
+      lines.splice(index, 0, lines[index] ?? '');
+      break;
+    case 'insert-blank-line':
+      lines.splice(index, 0, '');
+      break;
+    case 'indent-line':
+      lines[index] = `  ${lines[index] ?? ''}`;
+      break;
+  }
+  return lines.join('\n');
+}
+
+/** The analysis of `design` among `files` in a workspace that has never seen them. */
+async function freshAnalysis(files: Readonly<Record<string, string>>, design: string): Promise<DesignAnalysis> {
+  const workspace = await LspWorkspace.create();
+  await workspace.set(files);
+  return analyzeDocument(workspace.document(memoryUri(design)));
+}
+
+/** The analysis without its document version (the fresh workspace counts versions from 1). */
+function withoutVersion(analysis: DesignAnalysis): Omit<DesignAnalysis, 'version'> {
+  const { version: _version, ...rest } = analysis;
+  return rest;
+}
+
+const samples = sampleTexts();
+const designs: Record<string, string> = { ...Object.fromEntries(Object.entries(samples).filter(([name]) => name !== 'linings.runnel')), 'three-channels.runnel': THREE_CHANNELS };
+
+describe('the analysis after an edit', () => {
+  for (const [design, designText] of Object.entries(designs)) {
+    it(`equals a fresh analysis after random edits to ${design} and the shared linings`, async () => {
+      await fc.assert(
+        fc.asyncProperty(fc.array(editArbitrary, { minLength: 1, maxLength: 6 }), async (edits) => {
+          const editor = await LspWorkspace.create();
+          const files: Record<string, string> = { [design]: designText, 'linings.runnel': samples['linings.runnel'] ?? '' };
+          await editor.set(files);
+          analyzeDocument(editor.document(memoryUri(design)));
+          for (const edit of edits) {
+            // One edit in three goes to the linings file the design uses.
+            const name = edit.file % 3 === 2 ? 'linings.runnel' : design;
+            files[name] = applyEdit(files[name] ?? '', edit);
+            await editor.set({ [name]: files[name] ?? '' });
+            const incremental = analyzeDocument(editor.document(memoryUri(design)));
+            const fresh = await freshAnalysis(files, design);
+            expect(withoutVersion(incremental)).toEqual(withoutVersion(fresh));
+          }
+        }),
+        { numRuns: 12 },
+      );
+    }, 120_000);
+  }
+
+  it('takes over the channels an edit did not touch, and only those', async () => {
+    const editor = await LspWorkspace.create();
+    const [document] = await editor.set({ 'three.runnel': THREE_CHANNELS });
+    const before = analyzeDocument(document!);
+    const [edited] = await editor.set({ 'three.runnel': THREE_CHANNELS.replace('slope 1.4 %', 'slope 1.2 %') });
+    const after = analyzeDocument(edited!);
+    expect(after.channels.map((channel) => channel.name)).toEqual(['north', 'middle', 'south']);
+    expect(after.channels[0]).toBe(before.channels[0]);
+    expect(after.channels[1]).not.toBe(before.channels[1]);
+    expect(after.channels[2]).toBe(before.channels[2]);
+    // A line inserted above every channel moves them all: none is taken over.
+    const [shifted] = await editor.set({ 'three.runnel': `\n${THREE_CHANNELS}` });
+    const moved = analyzeDocument(shifted!);
+    expect(moved.channels.some((channel, index) => channel === after.channels[index])).toBe(false);
+  });
+});
