@@ -41,10 +41,12 @@ const SECONDS_PER_DAY = 86_400;
 export const UNIT_TABLE: readonly UnitDefinition[] = [
   // Length
   { symbol: 'm', spellings: ['m'], dimension: 'length', toSI: 1, system: 'SI', name: 'metres' },
+  { symbol: 'km', spellings: ['km'], dimension: 'length', toSI: 1000, system: 'SI', name: 'kilometres' },
   { symbol: 'cm', spellings: ['cm'], dimension: 'length', toSI: 0.01, system: 'SI', name: 'centimetres' },
   { symbol: 'mm', spellings: ['mm'], dimension: 'length', toSI: 0.001, system: 'SI', name: 'millimetres' },
   { symbol: 'ft', spellings: ['ft'], dimension: 'length', toSI: FOOT_M, system: 'US', name: 'feet' },
   { symbol: 'in', spellings: ['in'], dimension: 'length', toSI: INCH_M, system: 'US', name: 'inches' },
+  { symbol: 'mi', spellings: ['mi'], dimension: 'length', toSI: 5280 * FOOT_M, system: 'US', name: 'miles (statute)' },
   // Area
   { symbol: 'm2', spellings: ['m2'], dimension: 'area', toSI: 1, system: 'SI', name: 'square metres' },
   { symbol: 'ft2', spellings: ['ft2', 'sqft'], dimension: 'area', toSI: FOOT_M ** 2, system: 'US', name: 'square feet' },

@@ -19,7 +19,7 @@ function rule<P>(code: string, severity: ValidationSeverity, message: (parameter
   return { code, severity, message };
 }
 
-/** "m, cm, mm, ft or in": the units accepted for a dimension, from the unit table. */
+/** "m, km, cm, mm, ft, in or mi": the units accepted for a dimension, from the unit table. */
 export function acceptedUnitsText(dimension: Dimension): string {
   const symbols = unitsOfDimension(dimension).map((unit) => unit.symbol);
   return symbols.length <= 1 ? (symbols[0] ?? '') : `${symbols.slice(0, -1).join(', ')} or ${symbols[symbols.length - 1]}`;

@@ -4,7 +4,7 @@
  * (language/analysis/format-quantity.ts), so a depth reads the same in hints, hover, messages and the report.
  */
 import { formatNumber, formatQuantity, formatRatio } from '../../language/analysis/format-quantity.js';
-import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
+import { FINDING_CODES, type FindingCode } from '../../language/analysis/finding-messages.js';
 import type { CheckStatus, Finding, FlowResult, ReachResult, Severity } from '../../language/analysis/model.js';
 import { NORMAL_DEPTH_BAND_RATIO } from '../../language/hydraulics/profile/profile-defaults.js';
 import { toDisplay, type UnitSystem } from '../../language/units/units.js';
@@ -16,7 +16,7 @@ export const STATUS_MARKERS: Readonly<Record<CheckStatus, string>> = { pass: '',
 export const SEVERITY_MARKERS: Readonly<Record<Severity, string>> = { error: '✖', warning: '⚠', information: 'ℹ' };
 
 /** One or two words per check, for hints and for "why no size passes". */
-export const CHECK_SHORT_NAMES: Readonly<Record<string, string>> = {
+export const CHECK_SHORT_NAMES: Readonly<Record<FindingCode, string>> = {
   [FINDING_CODES.overtopping]: 'over-topping',
   [FINDING_CODES.freeboardBelowRequired]: 'freeboard',
   [FINDING_CODES.supercriticalFlow]: 'supercritical',
@@ -36,7 +36,7 @@ export const CHECK_SHORT_NAMES: Readonly<Record<string, string>> = {
 };
 
 export function checkShortName(code: string): string {
-  return CHECK_SHORT_NAMES[code] ?? code;
+  return (CHECK_SHORT_NAMES as Readonly<Record<string, string>>)[code] ?? code;
 }
 
 /** The distinct short names of the checks that a flow's findings report, in order. */

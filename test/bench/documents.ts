@@ -34,7 +34,7 @@ import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
 const SIZES = [50, 500, 5_000] as const;
 const REACHES_PER_CHANNEL = 50;
 const TIMED_EDITS = 15;
-const WARM_UP_EDITS = 3;
+const WARM_UP_EDITS = 15;
 const TIMED_HOVERS = 200;
 
 /** A generated design of `reaches` reaches and 3 flows (see the module comment). */

@@ -30,6 +30,8 @@ const SI_BASE_IN_MATHJS: Readonly<Record<Dimension, string>> = {
 const MATHJS_SPELLING: Readonly<Record<string, string>> = {
   m: 'm',
   cm: 'cm',
+  km: 'km',
+  mi: 'mi',
   mm: 'mm',
   ft: 'ft',
   in: 'inch',

@@ -5,7 +5,7 @@
 import { describe, it } from 'vitest';
 import { BASE, CHANNEL, expectDiagnostic, expectNoDiagnostic } from '../language-test-kit.js';
 
-const LENGTH_UNITS = 'm, cm, mm, ft or in';
+const LENGTH_UNITS = 'm, km, cm, mm, ft, in or mi';
 const DISCHARGE_UNITS = 'm3/s, L/s, cfs, gpm or MGD';
 
 describe('unit-missing', () => {
