@@ -5,9 +5,10 @@
  * that cannot be computed give their own findings (profile-findings.ts).
  *
  * One computation per document version: `analyzeDocument` caches its result per document and recomputes only when
- * the text changed or a lining or section the design uses (possibly in another file) was replaced. Diagnostics,
- * hints, hover, the report and the CLI all read this one result. Nothing here throws on user input: a reach the
- * file leaves incomplete is listed in `incompleteReaches` and validation says why.
+ * the text changed, a lining or section the design uses (possibly in another file) was replaced, or the criteria
+ * defaults from settings (criteria-settings.ts) changed. Diagnostics, hints, hover, the report and the CLI all read
+ * this one result. Nothing here throws on user input: a reach the file leaves incomplete is listed in
+ * `incompleteReaches` and validation says why.
  */
 import { AstUtils, type AstNode, type LangiumDocument } from 'langium';
 import {
@@ -40,6 +41,7 @@ import {
 } from '../hydraulics/index.js';
 import { findUnit, type UnitSystem } from '../units/units.js';
 import { usbrFreeboardCoefficientM, usbrFreeboardM } from './criteria-defaults.js';
+import { criteriaDefaultsKey, type CriteriaDefaults } from './criteria-settings.js';
 import {
   channelFlowDischarges,
   designChannels,
@@ -55,7 +57,7 @@ import {
   type ResolvedReachGeometry,
   type ResolvedSection,
 } from './design-inputs.js';
-import { FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
+import { criterionFromSettingRemark, FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
 import { computeChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
 import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
 import type {
@@ -82,20 +84,22 @@ import { locationOf, propertyLocationOf } from './source-locations.js';
 // ------------------------------------------------------------------------------------------------ public API
 
 /**
- * The analysis of a Runnel document, computed once per document version and per set of linings and sections it
- * uses. The document should be built (linked) by the workspace's DocumentBuilder; unresolved references only make
- * the reaches that use them incomplete.
+ * The analysis of a Runnel document, computed once per document version, per set of linings and sections it
+ * uses and per criteria defaults from settings (criteria-settings.ts; NO_CRITERIA_DEFAULTS for none). The document
+ * should be built (linked) by the workspace's DocumentBuilder; unresolved references only make the reaches that
+ * use them incomplete.
  */
-export function analyzeDocument(document: LangiumDocument): DesignAnalysis {
+export function analyzeDocument(document: LangiumDocument, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
   const root = document.parseResult.value;
   const version = document.textDocument.version;
   const dependencies = isRunnelFile(root) ? resolvedDependencies(root) : [root];
+  const criteriaKey = criteriaDefaultsKey(criteriaDefaults);
   const cached = analysisCache.get(document);
-  if (cached !== undefined && cached.version === version && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
+  if (cached !== undefined && cached.version === version && cached.criteriaKey === criteriaKey && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
   const memo = openProfileMemo(document);
-  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo) : emptyAnalysis(document.uri.toString(), version);
+  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo, criteriaDefaults) : emptyAnalysis(document.uri.toString(), version, criteriaDefaults);
   keepProfileMemo(document, memo);
-  analysisCache.set(document, { version, dependencies, analysis });
+  analysisCache.set(document, { version, criteriaKey, dependencies, analysis });
   return analysis;
 }
 
@@ -131,6 +135,8 @@ export function displayUnitsOf(file: RunnelFile): { system: UnitSystem; origin: 
 
 interface CacheEntry {
   readonly version: number;
+  /** criteriaDefaultsKey of the settings the analysis was computed with. */
+  readonly criteriaKey: string;
   readonly dependencies: readonly AstNode[];
   readonly analysis: DesignAnalysis;
 }
@@ -159,8 +165,8 @@ function sameNodes(left: readonly AstNode[], right: readonly AstNode[]): boolean
 
 // ------------------------------------------------------------------------------------------------ design
 
-function emptyAnalysis(uri: string, version: number): DesignAnalysis {
-  const criteria = resolveCriteria([], [], 'SI');
+function emptyAnalysis(uri: string, version: number, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
+  const criteria = resolveCriteria([], [], 'SI', criteriaDefaults);
   return {
     uri,
     title: titleFromUri(uri),
@@ -180,13 +186,13 @@ function emptyAnalysis(uri: string, version: number): DesignAnalysis {
   };
 }
 
-function analyzeFile(file: RunnelFile, uri: string, version: number, memo: ProfileMemo): DesignAnalysis {
+function analyzeFile(file: RunnelFile, uri: string, version: number, memo: ProfileMemo, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
   const { system, origin } = displayUnitsOf(file);
   const formatter = new MessageFormatter(system);
   const criteriaBlocks = designCriteriaBlocks(file);
   const flows = designFlows(file);
   const incompleteReaches: IncompleteReach[] = [];
-  const channels = designChannels(file).map((channel) => analyzeChannel(channel, flows, criteriaBlocks, system, formatter, incompleteReaches, memo));
+  const channels = designChannels(file).map((channel) => analyzeChannel(channel, flows, criteriaBlocks, system, formatter, incompleteReaches, memo, criteriaDefaults));
   const findings = channels.flatMap((channel) => channel.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)));
   const header = file.header;
   return {
@@ -203,7 +209,7 @@ function analyzeFile(file: RunnelFile, uri: string, version: number, memo: Profi
     kind: isLibraryHeader(header) ? 'library' : 'design',
     displayUnitsOrigin: origin,
     flows: flows.map(flowSummary),
-    criteria: resolveCriteria(criteriaBlocks, [], system),
+    criteria: resolveCriteria(criteriaBlocks, [], system, criteriaDefaults),
     incompleteReaches,
   };
 }
@@ -232,6 +238,7 @@ function analyzeChannel(
   formatter: MessageFormatter,
   incompleteReaches: IncompleteReach[],
   memo: ProfileMemo,
+  criteriaDefaults: CriteriaDefaults,
 ): ChannelResult {
   const channelName = channel.name ?? '';
   const dischargesByReach = channelFlowDischarges(channel, flows);
@@ -272,7 +279,7 @@ function analyzeChannel(
       liningNode: geometry.value.lining,
       lining: lining.value,
       slope: geometry.value.slope,
-      criteria: resolveCriteria(designCriteria, reachParts(member).criteria, system),
+      criteria: resolveCriteria(designCriteria, reachParts(member).criteria, system, criteriaDefaults),
       formatter,
     };
     analysed.push({ context, geometry: geometry.value, discharges: dischargesByReach.get(member) ?? new Map<Flow, FlowDischarge>() });
@@ -435,7 +442,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
     findings.push({
       code,
       severity,
-      message,
+      message: message + criterionFromSettingRemark(code, criteria.origin),
       location,
       channel: context.channelName,
       reach: context.reachName,
@@ -599,7 +606,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
       report(
         FINDING_CODES.nearCriticalFlow,
         'warning',
-        FINDING_MESSAGES.nearCriticalFlow(f, { flow: flowName, froude, low: band.low, high: band.high, bandIsDefault: criteria.origin['avoidFroude'] === 'default' }),
+        FINDING_MESSAGES.nearCriticalFlow(f, { flow: flowName, froude, low: band.low, high: band.high, bandOrigin: criteria.origin['avoidFroude'] ?? 'default' }),
         { froudeNumber: froude, bandLow: band.low, bandHigh: band.high },
       );
     } else if (regime === 'supercritical') {
