@@ -15,6 +15,7 @@ import {
   type Module,
   type PartialLangiumCoreServices,
 } from 'langium';
+import { CriteriaDefaultsSource } from './analysis/criteria-settings.js';
 import { RunnelGeneratedModule, RunnelGeneratedSharedModule } from './generated/module.js';
 import { RunnelLexerErrorMessages, RunnelParserErrorMessages } from './parser/runnel-parser-messages.js';
 import { RunnelValueConverter } from './parser/runnel-value-converter.js';
@@ -22,8 +23,16 @@ import { RunnelScopeComputation } from './references/runnel-scope-computation.js
 import { RunnelDocumentValidator } from './validation/runnel-document-validator.js';
 import { RunnelValidationRegistry } from './validation/runnel-validation-registry.js';
 
-/** Services Runnel adds to Langium's (none yet beyond replacements: the type keeps the door open). */
-export type RunnelAddedServices = Record<never, never>;
+/** Services Runnel adds to Langium's. */
+export interface RunnelAddedServices {
+  readonly analysis: {
+    /**
+     * The design-criteria defaults from settings that every analysis and validation of these services uses: set by
+     * the language server from the editor's settings and by the command line from its options.
+     */
+    readonly CriteriaDefaults: CriteriaDefaultsSource;
+  };
+}
 
 /** Everything a Runnel language instance offers. */
 export type RunnelServices = LangiumCoreServices & RunnelAddedServices;
@@ -47,6 +56,9 @@ export const RunnelModule: Module<RunnelServices, PartialLangiumCoreServices & R
   },
   references: {
     ScopeComputation: (services) => new RunnelScopeComputation(services),
+  },
+  analysis: {
+    CriteriaDefaults: () => new CriteriaDefaultsSource(),
   },
   validation: {
     ValidationRegistry: (services) => new RunnelValidationRegistry(services),

@@ -5,9 +5,10 @@
  * that cannot be computed give their own findings (profile-findings.ts).
  *
  * One computation per document version: `analyzeDocument` caches its result per document and recomputes only when
- * the text changed or a lining or section the design uses (possibly in another file) was replaced. Diagnostics,
- * hints, hover, the report and the CLI all read this one result. Nothing here throws on user input: a reach the
- * file leaves incomplete is listed in `incompleteReaches` and validation says why.
+ * the text changed, a lining or section the design uses (possibly in another file) was replaced, or the criteria
+ * defaults from settings (criteria-settings.ts) changed. Diagnostics, hints, hover, the report and the CLI all read
+ * this one result. Nothing here throws on user input: a reach the file leaves incomplete is listed in
+ * `incompleteReaches` and validation says why.
  */
 import { AstUtils, DocumentState, isReference, type AstNode, type LangiumDocument } from 'langium';
 import {
@@ -40,6 +41,7 @@ import {
 } from '../hydraulics/index.js';
 import { findUnit, type UnitSystem } from '../units/units.js';
 import { usbrFreeboardCoefficientM, usbrFreeboardM } from './criteria-defaults.js';
+import { criteriaDefaultsKey, type CriteriaDefaults } from './criteria-settings.js';
 import {
   channelFlowDischarges,
   designChannels,
@@ -55,7 +57,7 @@ import {
   type ResolvedReachGeometry,
   type ResolvedSection,
 } from './design-inputs.js';
-import { FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
+import { criterionFromSettingRemark, FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
 import { computeChannelProfiles, forgetChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
 import { channelKey, designContextKey, forgetChannelMemos, keepChannelMemo, openChannelMemo, type ChannelMemo } from './channel-memo.js';
 import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
@@ -83,21 +85,23 @@ import { locationOf, propertyLocationOf } from './source-locations.js';
 // ------------------------------------------------------------------------------------------------ public API
 
 /**
- * The analysis of a Runnel document, computed once per document version and per set of linings and sections it
- * uses. The document should be built (linked) by the workspace's DocumentBuilder; unresolved references only make
- * the reaches that use them incomplete.
+ * The analysis of a Runnel document, computed once per document version, per set of linings and sections it
+ * uses and per criteria defaults from settings (criteria-settings.ts; NO_CRITERIA_DEFAULTS for none). The document
+ * should be built (linked) by the workspace's DocumentBuilder; unresolved references only make the reaches that
+ * use them incomplete.
  */
-export function analyzeDocument(document: LangiumDocument): DesignAnalysis {
+export function analyzeDocument(document: LangiumDocument, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
   const root = document.parseResult.value;
   const version = document.textDocument.version;
   const dependencies = isRunnelFile(root) ? resolvedDependencies(document, root) : [root];
+  const criteriaKey = criteriaDefaultsKey(criteriaDefaults);
   const cached = analysisCache.get(document);
-  if (cached !== undefined && cached.version === version && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
+  if (cached !== undefined && cached.version === version && cached.criteriaKey === criteriaKey && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
   const memo: AnalysisMemo = { profiles: openProfileMemo(document), channels: openChannelMemo(document) };
-  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo) : emptyAnalysis(document.uri.toString(), version);
+  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo, criteriaDefaults) : emptyAnalysis(document.uri.toString(), version, criteriaDefaults);
   keepProfileMemo(document, memo.profiles);
   keepChannelMemo(document, memo.channels);
-  analysisCache.set(document, { version, dependencies, analysis });
+  analysisCache.set(document, { version, criteriaKey, dependencies, analysis });
   return analysis;
 }
 
@@ -147,6 +151,8 @@ export function displayUnitsOf(file: RunnelFile): { system: UnitSystem; origin: 
 
 interface CacheEntry {
   readonly version: number;
+  /** criteriaDefaultsKey of the settings the analysis was computed with. */
+  readonly criteriaKey: string;
   readonly dependencies: readonly AstNode[];
   readonly analysis: DesignAnalysis;
 }
@@ -186,8 +192,8 @@ function sameNodes(left: readonly AstNode[], right: readonly AstNode[]): boolean
 
 // ------------------------------------------------------------------------------------------------ design
 
-function emptyAnalysis(uri: string, version: number): DesignAnalysis {
-  const criteria = resolveCriteria([], [], 'SI');
+function emptyAnalysis(uri: string, version: number, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
+  const criteria = resolveCriteria([], [], 'SI', criteriaDefaults);
   return {
     uri,
     title: titleFromUri(uri),
@@ -207,13 +213,14 @@ function emptyAnalysis(uri: string, version: number): DesignAnalysis {
   };
 }
 
-function analyzeFile(file: RunnelFile, uri: string, version: number, memo: AnalysisMemo): DesignAnalysis {
+function analyzeFile(file: RunnelFile, uri: string, version: number, memo: AnalysisMemo, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
   const { system, origin } = displayUnitsOf(file);
   const formatter = new MessageFormatter(system);
   const criteriaBlocks = designCriteriaBlocks(file);
   const flows = designFlows(file);
   const incompleteReaches: IncompleteReach[] = [];
-  const contextKey = designContextKey(file, system, '');
+  // The criteria defaults from settings feed every channel's criteria: they are part of every channel's key.
+  const contextKey = designContextKey(file, system, criteriaDefaultsKey(criteriaDefaults));
   const channelFindings: (readonly Finding[])[] = [];
   const channels = designChannels(file).map((channel) => {
     // A channel whose inputs did not change since the previous version keeps its results (channel-memo.ts).
@@ -221,7 +228,7 @@ function analyzeFile(file: RunnelFile, uri: string, version: number, memo: Analy
     let remembered = memo.channels.previous?.get(key) ?? memo.channels.next.get(key);
     if (remembered === undefined) {
       const leftOut: IncompleteReach[] = [];
-      const result = analyzeChannel(channel, flows, criteriaBlocks, system, formatter, leftOut, memo.profiles);
+      const result = analyzeChannel(channel, flows, criteriaBlocks, system, formatter, leftOut, memo.profiles, criteriaDefaults);
       remembered = { result, incompleteReaches: leftOut, findings: result.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)) };
     }
     memo.channels.next.set(key, remembered);
@@ -245,7 +252,7 @@ function analyzeFile(file: RunnelFile, uri: string, version: number, memo: Analy
     kind: isLibraryHeader(header) ? 'library' : 'design',
     displayUnitsOrigin: origin,
     flows: flows.map(flowSummary),
-    criteria: resolveCriteria(criteriaBlocks, [], system),
+    criteria: resolveCriteria(criteriaBlocks, [], system, criteriaDefaults),
     incompleteReaches,
   };
 }
@@ -274,6 +281,7 @@ function analyzeChannel(
   formatter: MessageFormatter,
   incompleteReaches: IncompleteReach[],
   memo: ProfileMemo,
+  criteriaDefaults: CriteriaDefaults,
 ): ChannelResult {
   const channelName = channel.name ?? '';
   const dischargesByReach = channelFlowDischarges(channel, flows);
@@ -314,7 +322,7 @@ function analyzeChannel(
       liningNode: geometry.value.lining,
       lining: lining.value,
       slope: geometry.value.slope,
-      criteria: resolveCriteria(designCriteria, reachParts(member).criteria, system),
+      criteria: resolveCriteria(designCriteria, reachParts(member).criteria, system, criteriaDefaults),
       formatter,
     };
     analysed.push({ context, geometry: geometry.value, discharges: dischargesByReach.get(member) ?? new Map<Flow, FlowDischarge>() });
@@ -477,7 +485,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
     findings.push({
       code,
       severity,
-      message,
+      message: message + criterionFromSettingRemark(code, criteria.origin),
       location,
       channel: context.channelName,
       reach: context.reachName,
@@ -641,7 +649,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
       report(
         FINDING_CODES.nearCriticalFlow,
         'warning',
-        FINDING_MESSAGES.nearCriticalFlow(f, { flow: flowName, froude, low: band.low, high: band.high, bandIsDefault: criteria.origin['avoidFroude'] === 'default' }),
+        FINDING_MESSAGES.nearCriticalFlow(f, { flow: flowName, froude, low: band.low, high: band.high, bandOrigin: criteria.origin['avoidFroude'] ?? 'default' }),
         { froudeNumber: froude, bandLow: band.low, bandHigh: band.high },
       );
     } else if (regime === 'supercritical') {

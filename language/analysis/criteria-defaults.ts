@@ -1,7 +1,8 @@
 /**
- * Default design criteria, each with its source. A design's `criteria { }` block overrides any of them, and a
- * reach's own `criteria { }` overrides the design's. Every threshold a finding uses is defined here or in the
- * design file, never as a literal in the checks.
+ * Default design criteria, each with its source. An editor setting or command-line option overrides any of them
+ * (criteria-settings.ts), a design's `criteria { }` block overrides those, and a reach's own `criteria { }`
+ * overrides the design's. Every threshold a finding uses is defined here, in a setting or in the design file,
+ * never as a literal in the checks.
  */
 import { findUnit, type UnitSystem } from '../units/units.js';
 
@@ -83,6 +84,12 @@ export const DEFAULT_LIMIT_MARGIN = {
  * is checked. Freeboard rules vary too much between agencies and channel types for a silent default.
  */
 export const DEFAULT_FREEBOARD = null;
+
+/**
+ * How a criterion taken from an editor setting or a command-line option (criteria-settings.ts) is described wherever
+ * its origin is shown (hover, report, findings): plain words that send a reviewer outside the file.
+ */
+export const CRITERION_FROM_SETTING = 'from the editor or command-line setting, not from the file';
 
 /**
  * Typical range of Manning's n for the channels Runnel checks, used only to warn about likely typos: Chow (1959)

@@ -39,7 +39,8 @@ import {
   type SideSlope,
 } from '../generated/ast.js';
 import { SECTION_FACTORIES, type SectionGeometry, type SectionShape } from '../hydraulics/index.js';
-import type { ResolvedCriteria, SectionShapeName } from './model.js';
+import type { CriterionOrigin, ResolvedCriteria, SectionShapeName } from './model.js';
+import type { CriteriaDefaults } from './criteria-settings.js';
 import { quantitySI } from './quantities.js';
 import {
   DEFAULT_FREEBOARD,
@@ -266,16 +267,34 @@ export function channelFlowDischarges(channel: Channel, flows: readonly Flow[]):
 
 // ------------------------------------------------------------------------------------------------ criteria
 
-type Origin = 'default' | 'design' | 'reach';
-
-/** The criteria in force: defaults, then the design's `criteria { }` blocks, then the reach's own. */
-export function resolveCriteria(designCriteria: readonly Criteria[], reachCriteria: readonly Criteria[], displayUnits: UnitSystem): ResolvedCriteria {
+/**
+ * The criteria in force: the built-in defaults, then the defaults from settings (editor settings or command-line
+ * options, criteria-settings.ts), then the design's `criteria { }` blocks, then the reach's own. `fromSettings` is
+ * required so that every caller says which settings it analyses with (NO_CRITERIA_DEFAULTS for none).
+ */
+export function resolveCriteria(designCriteria: readonly Criteria[], reachCriteria: readonly Criteria[], displayUnits: UnitSystem, fromSettings: CriteriaDefaults): ResolvedCriteria {
   let freeboard: ResolvedCriteria['freeboard'] = DEFAULT_FREEBOARD;
   let avoidFroude: ResolvedCriteria['avoidFroude'] = { low: DEFAULT_NEAR_CRITICAL_FROUDE_BAND.low, high: DEFAULT_NEAR_CRITICAL_FROUDE_BAND.high };
   let minVelocityMps: number | null = defaultMinimumVelocityMps(displayUnits);
-  let limitMargin = DEFAULT_LIMIT_MARGIN.fraction;
-  const origin: Record<string, Origin> = { freeboard: 'default', avoidFroude: 'default', minVelocity: 'default', limitMargin: 'default' };
-  const apply = (blocks: readonly Criteria[], from: Origin): void => {
+  let limitMargin: number = DEFAULT_LIMIT_MARGIN.fraction;
+  const origin: Record<string, CriterionOrigin> = { freeboard: 'default', avoidFroude: 'default', minVelocity: 'default', limitMargin: 'default' };
+  if (fromSettings.freeboard !== undefined) {
+    freeboard = fromSettings.freeboard;
+    origin['freeboard'] = 'setting';
+  }
+  if (fromSettings.avoidFroude !== undefined) {
+    avoidFroude = fromSettings.avoidFroude;
+    origin['avoidFroude'] = 'setting';
+  }
+  if (fromSettings.minVelocity_mps !== undefined) {
+    minVelocityMps = fromSettings.minVelocity_mps;
+    origin['minVelocity'] = 'setting';
+  }
+  if (fromSettings.limitMargin !== undefined) {
+    limitMargin = fromSettings.limitMargin;
+    origin['limitMargin'] = 'setting';
+  }
+  const apply = (blocks: readonly Criteria[], from: CriterionOrigin): void => {
     for (const block of blocks) {
       for (const item of block.items ?? []) {
         if (isFreeboardCriterion(item)) {

@@ -5,7 +5,8 @@
 import { describeJumpType } from '../hydraulics/index.js';
 import type { UnitSystem } from '../units/units.js';
 import { formatPercent, formatQuantity, formatRatio } from './format-quantity.js';
-import { DEFAULT_NEAR_CRITICAL_FROUDE_BAND } from './criteria-defaults.js';
+import { CRITERION_FROM_SETTING, DEFAULT_NEAR_CRITICAL_FROUDE_BAND } from './criteria-defaults.js';
+import type { CriterionOrigin } from './model.js';
 
 /** Stable finding codes (the contract in model.ts lists them). */
 export const FINDING_CODES = {
@@ -193,9 +194,13 @@ export const FINDING_MESSAGES = {
     `Supercritical flow at ${p.flow}: Froude number ${formatRatio(p.froude)} (normal depth ${f.length(p.normalDepthM)} is below critical depth ${f.length(p.criticalDepthM)}). ` +
     'A hydraulic jump forms where the flow returns to subcritical, and bends need a superelevation check.',
 
-  nearCriticalFlow: (_f: MessageFormatter, p: { flow: string; froude: number; low: number; high: number; bandIsDefault: boolean }) =>
+  nearCriticalFlow: (_f: MessageFormatter, p: { flow: string; froude: number; low: number; high: number; bandOrigin: CriterionOrigin }) =>
     `Near-critical flow at ${p.flow}: Froude number ${formatRatio(p.froude)} is within the band ${p.low} to ${p.high} to avoid, where the water surface is unstable and wavy` +
-    (p.bandIsDefault ? ` (${DEFAULT_NEAR_CRITICAL_FROUDE_BAND.source}).` : ' (band set in the criteria).'),
+    (p.bandOrigin === 'default'
+      ? ` (${DEFAULT_NEAR_CRITICAL_FROUDE_BAND.source}).`
+      : p.bandOrigin === 'setting'
+        ? ` (band ${CRITERION_FROM_SETTING}).`
+        : ' (band set in the criteria).'),
 
   velocityAbovePermissible: (f: MessageFormatter, p: { flow: string; velocityMps: number; permissibleMps: number; lining: string; margin: number }) =>
     `Velocity at ${p.flow} is ${f.velocity(p.velocityMps)}, above the ${f.velocity(p.permissibleMps)} that lining '${p.lining}' permits ` +
@@ -222,6 +227,26 @@ export const FINDING_MESSAGES = {
 
   depthSolveFailed: (_f: MessageFormatter, p: { flow: string; detail: string }) => `Depths at ${p.flow} could not be computed: ${p.detail}`,
 } as const;
+
+/**
+ * The criterion each finding is judged against, by its key in ResolvedCriteria.origin; the near-critical band says
+ * where it came from in its own message.
+ */
+const CRITERION_OF_FINDING: Readonly<Record<string, { readonly key: string; readonly words: string }>> = {
+  [FINDING_CODES.freeboardBelowRequired]: { key: 'freeboard', words: 'The required freeboard is' },
+  [FINDING_CODES.velocityBelowSelfCleansing]: { key: 'minVelocity', words: 'The self-cleansing minimum is' },
+  [FINDING_CODES.velocityAbovePermissible]: { key: 'limitMargin', words: 'The limit margin is' },
+  [FINDING_CODES.shearAbovePermissible]: { key: 'limitMargin', words: 'The limit margin is' },
+};
+
+/**
+ * Said after a finding judged against a criterion that came from an editor setting or command-line option, so that
+ * whoever reads the finding knows the file alone does not explain it; '' otherwise.
+ */
+export function criterionFromSettingRemark(code: string, origin: Readonly<Record<string, CriterionOrigin>>): string {
+  const criterion = CRITERION_OF_FINDING[code];
+  return criterion !== undefined && origin[criterion.key] === 'setting' ? ` ${criterion.words} ${CRITERION_FROM_SETTING}.` : '';
+}
 
 /** How the normal-depth remark reads when a conduit flows on the lower of two depths. */
 export const LOWER_OF_TWO_DEPTHS_NOTE =

@@ -270,9 +270,16 @@ export interface ResolvedCriteria {
    * permissible value (0.2 = 20 %). Added by the language work.
    */
   readonly limitMargin: number;
-  /** Where each value came from: 'default', 'design' or 'reach'. */
-  readonly origin: Readonly<Record<string, 'default' | 'design' | 'reach'>>;
+  /** Where each value came from (keys `freeboard`, `avoidFroude`, `minVelocity`, `limitMargin`); see CriterionOrigin. */
+  readonly origin: Readonly<Record<string, CriterionOrigin>>;
 }
+
+/**
+ * Where a criterion in force came from, from weakest to strongest: Runnel's built-in default ('default'), an editor
+ * setting or command-line option ('setting'; criteria-settings.ts), the design's `criteria { }` ('design'), or the
+ * reach's own ('reach'). The file always wins over a setting: it is the record.
+ */
+export type CriterionOrigin = 'default' | 'setting' | 'design' | 'reach';
 
 export interface ReachResult {
   readonly channel: string;

@@ -15,7 +15,7 @@ import { designFlowOrder, flowColourClass } from './flow-colours.js';
 import { formatTimestampUtc } from './format.js';
 import { renderLongitudinalSvg } from './longitudinal-svg.js';
 import { renderRatingCurveSvg } from './rating-curve-svg.js';
-import { buildProfileSummary, buildReachFacts, buildReachFlowTable, buildSummaryTable, findingLineText, findingPlaceText, lineText, tallyText, type ProfileSummary, type ReachFlowTable, type TextTable } from './results-table.js';
+import { buildProfileSummary, buildReachFacts, buildReachFlowTable, buildSummaryTable, criteriaFromSettingsText, findingLineText, findingPlaceText, lineText, tallyText, type ProfileSummary, type ReachFlowTable, type TextTable } from './results-table.js';
 import { REPORT_STYLESHEET } from './report-styles.js';
 import { DRAWING_WORDS, REPORT_WORDS, SEVERITY_WORDS, STATUS_WORDS } from './report-wording.js';
 import { sha256Base64 } from './sha256.js';
@@ -83,6 +83,10 @@ export function renderReportHtml(analysis: DesignAnalysis, options: ReportHtmlOp
   }
   body.push(`</header>`);
   body.push(`<aside class="caution" role="note" data-role="caution"><strong>${escapeHtml(REPORT_WORDS.cautionLead)}</strong> ${escapeHtml(analysis.caution)}</aside>`);
+  const fromSettings = criteriaFromSettingsText(analysis);
+  if (fromSettings !== null) {
+    body.push(`<aside class="caution" role="note" data-role="criteria-from-settings"><strong>${escapeHtml(REPORT_WORDS.criteriaFromSettingsLead)}</strong> ${escapeHtml(fromSettings)}</aside>`);
+  }
 
   // Summary.
   const summary = buildSummaryTable(analysis);

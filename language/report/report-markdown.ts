@@ -6,7 +6,18 @@
 import type { DesignAnalysis } from '../analysis/model.js';
 import { escapeMarkdownInline } from './escape.js';
 import { formatTimestampUtc } from './format.js';
-import { buildProfileSummary, buildReachFacts, buildReachFlowTable, buildSummaryTable, findingLineText, findingPlaceText, lineText, tallyText, type TextTable } from './results-table.js';
+import {
+  buildProfileSummary,
+  buildReachFacts,
+  buildReachFlowTable,
+  buildSummaryTable,
+  criteriaFromSettingsText,
+  findingLineText,
+  findingPlaceText,
+  lineText,
+  tallyText,
+  type TextTable,
+} from './results-table.js';
 import { REPORT_WORDS, SEVERITY_WORDS } from './report-wording.js';
 
 export interface ReportMarkdownOptions {
@@ -33,6 +44,8 @@ export function renderReportMarkdown(analysis: DesignAnalysis, options: ReportMa
   meta.push(`${REPORT_WORDS.unitsLabel}: ${REPORT_WORDS.unitSystemNames[system] ?? system}`);
   lines.push(meta.join(' · '), '');
   lines.push(`> **${REPORT_WORDS.cautionLead}** ${escapeMarkdownInline(analysis.caution)}`, '');
+  const fromSettings = criteriaFromSettingsText(analysis);
+  if (fromSettings !== null) lines.push(`> **${REPORT_WORDS.criteriaFromSettingsLead}** ${escapeMarkdownInline(fromSettings)}`, '');
   if (analysis.notes.length > 0) {
     lines.push(`**${REPORT_WORDS.notesHeading}**`, '', ...analysis.notes.map((note) => `- ${escapeMarkdownInline(note)}`), '');
   }

@@ -2,6 +2,7 @@
  * Every fixed word the report prints, in one place, so the HTML report, the Markdown report and the drawings
  * say the same thing. Plain words of our own; no codes or headings from other programs.
  */
+import { CRITERION_FROM_SETTING } from '../analysis/criteria-defaults.js';
 import type { CheckStatus, Severity } from '../analysis/model.js';
 
 /** How a check outcome reads in tables and lists. */
@@ -57,6 +58,9 @@ export const REPORT_WORDS = {
   profileHeading: 'Water-surface profile',
   profileIntro: 'The computed water surface along the channel at each design flow; stations are distances from the head of the channel.',
   notAnalysedWord: 'not analysed',
+  criteriaFromSettingsLead: 'Criteria from settings.',
+  criteriaFromSettings: (criteria: string): string =>
+    `Where the design file states no criterion of its own, these come ${CRITERION_FROM_SETTING}: ${criteria}. A value written in the design file takes precedence.`,
 } as const;
 
 /** Quantity names for the per-reach results table (rows) and the summary (columns). */
@@ -100,6 +104,7 @@ export const QUANTITY_WORDS = {
   freeboardCriterion: 'Freeboard criterion',
   froudeBand: 'Froude numbers to avoid',
   minVelocity: 'Self-cleansing velocity (minimum)',
+  limitMargin: 'Margin past a lining limit before a fail',
   note: 'Note',
   profileClasses: 'Profile',
   deepestWater: 'Deepest water',

@@ -3,7 +3,8 @@
  * Markdown report, so the two always show the same rows, headings, rounding and wording. Cells are unescaped
  * text: each renderer escapes them for its own format.
  */
-import type { ChannelResult, CheckStatus, DesignAnalysis, Finding, FlowResult, ReachResult, ResolvedCriteria, SourceLocation } from '../analysis/model.js';
+import { CRITERION_FROM_SETTING } from '../analysis/criteria-defaults.js';
+import type { ChannelResult, CheckStatus, CriterionOrigin, DesignAnalysis, Finding, FlowResult, ReachResult, ResolvedCriteria, SourceLocation } from '../analysis/model.js';
 import { describeJumpType } from '../hydraulics/index.js';
 import type { UnitSystem } from '../units/units.js';
 import {
@@ -132,15 +133,26 @@ export function buildReachFacts(reach: ReachResult, system: UnitSystem): TextTab
   if (isConduit) rows.push([QUANTITY_WORDS.fullDepth, formatQuantity(reach.section.fullDepth_m ?? reach.section.dimensions['diameter_m'] ?? null, 'length', system)]);
   else rows.push([QUANTITY_WORDS.bankHeight, reach.section.bankDepth_m === null ? 'not given' : formatQuantity(reach.section.bankDepth_m, 'length', system)]);
   rows.push([isConduit ? QUANTITY_WORDS.fullCapacity : QUANTITY_WORDS.bankfullCapacity, formatQuantity(reach.bankfullCapacity_m3s, 'discharge', system)]);
-  rows.push(...criteriaRows(reach.criteria, system));
+  rows.push(...criteriaRows(reach.criteria, system, lining.maxVelocity_mps !== null || lining.maxShear_Pa !== null));
   return { headings: [QUANTITY_WORDS.reach, reach.name], numeric: [false, false], rows };
 }
 
-function criteriaRows(criteria: ResolvedCriteria, system: UnitSystem): string[][] {
-  const origin = (key: string): string => {
-    const where = criteria.origin[key];
-    return where === 'default' ? ' (default)' : where === 'reach' ? ' (set for this reach)' : '';
-  };
+/** The words after a criterion that say where it came from; nothing for the design's own criteria block. */
+const ORIGIN_WORDS: Readonly<Record<CriterionOrigin, string>> = {
+  default: ' (default)',
+  setting: ` (${CRITERION_FROM_SETTING})`,
+  design: '',
+  reach: ' (set for this reach)',
+};
+
+function criteriaRows(criteria: ResolvedCriteria, system: UnitSystem, withLimitMargin: boolean): string[][] {
+  return criterionValues(criteria, system)
+    .filter((criterion) => withLimitMargin || criterion.key !== 'limitMargin')
+    .map((criterion) => [criterion.label, `${criterion.value}${ORIGIN_WORDS[criteria.origin[criterion.key] ?? 'default']}`]);
+}
+
+/** Each criterion in force as a label and a value in display units, keyed as in ResolvedCriteria.origin. */
+function criterionValues(criteria: ResolvedCriteria, system: UnitSystem): { key: string; label: string; value: string }[] {
   const freeboard = criteria.freeboard;
   let freeboardText: string;
   if (freeboard === null) freeboardText = 'none required';
@@ -151,12 +163,35 @@ function criteriaRows(criteria: ResolvedCriteria, system: UnitSystem): string[][
         ? 'USBR rule F = sqrt(C y), C from the design discharge'
         : `USBR rule F = sqrt(C y), C = ${formatSignificant(freeboard.coefficientC_SI)} (metres)`;
   }
-  const rows = [
-    [QUANTITY_WORDS.freeboardCriterion, `${freeboardText}${origin('freeboard')}`],
-    [QUANTITY_WORDS.froudeBand, `${formatFroude(criteria.avoidFroude.low)} to ${formatFroude(criteria.avoidFroude.high)}${origin('avoidFroude')}`],
+  const values: { key: string; label: string; value: string }[] = [
+    { key: 'freeboard', label: QUANTITY_WORDS.freeboardCriterion, value: freeboardText },
+    { key: 'avoidFroude', label: QUANTITY_WORDS.froudeBand, value: `${formatFroude(criteria.avoidFroude.low)} to ${formatFroude(criteria.avoidFroude.high)}` },
   ];
-  if (criteria.minVelocity_mps !== null) rows.push([QUANTITY_WORDS.minVelocity, `${formatQuantity(criteria.minVelocity_mps, 'velocity', system)}${origin('minVelocity')}`]);
-  return rows;
+  if (criteria.minVelocity_mps !== null) values.push({ key: 'minVelocity', label: QUANTITY_WORDS.minVelocity, value: formatQuantity(criteria.minVelocity_mps, 'velocity', system) });
+  values.push({ key: 'limitMargin', label: QUANTITY_WORDS.limitMargin, value: `${formatSignificant(criteria.limitMargin * 100)} %` });
+  return values;
+}
+
+/**
+ * The sentence the report puts under its caution when criteria came from an editor setting or a command-line
+ * option rather than the file, so a reviewer reading the report knows the file alone does not explain the checks;
+ * null when none did. Names each such criterion with its value.
+ */
+export function criteriaFromSettingsText(analysis: DesignAnalysis): string | null {
+  const seen = new Map<string, string>();
+  const reachCriteria = analysis.channels.flatMap((channel) => channel.reaches.map((reach) => reach.criteria));
+  for (const criteria of [analysis.criteria, ...reachCriteria]) {
+    for (const criterion of criteriaFromSettings(criteria, analysis.displayUnits)) if (!seen.has(criterion.key)) seen.set(criterion.key, criterion.text);
+  }
+  if (seen.size === 0) return null;
+  return REPORT_WORDS.criteriaFromSettings([...seen.values()].join('; '));
+}
+
+/** The criteria in force that came from a setting, each as "label: value" (hover lists them per reach). */
+export function criteriaFromSettings(criteria: ResolvedCriteria, system: UnitSystem): { key: string; text: string }[] {
+  return criterionValues(criteria, system)
+    .filter((criterion) => criteria.origin[criterion.key] === 'setting')
+    .map((criterion) => ({ key: criterion.key, text: `${criterion.label}: ${criterion.value}` }));
 }
 
 /** The per-reach results table and the notes on individual flows that go under it. */

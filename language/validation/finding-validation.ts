@@ -8,6 +8,7 @@
 import { AstUtils, type DiagnosticInfo, type ValidationAcceptor, type ValidationChecks, type ValidationSeverity } from 'langium';
 import type { RunnelAstType, RunnelFile } from '../generated/ast.js';
 import { analyzeDocument } from '../analysis/analyze-design.js';
+import type { CriteriaDefaults, CriteriaDefaultsSource } from '../analysis/criteria-settings.js';
 import { FINDING_CODES } from '../analysis/finding-messages.js';
 import type { Finding, Severity } from '../analysis/model.js';
 
@@ -16,8 +17,8 @@ const SEVERITY: Readonly<Record<Severity, ValidationSeverity>> = { error: 'error
 /** Findings whose cause validation reports by itself. */
 const REPORTED_BY_VALIDATION: ReadonlySet<string> = new Set([FINDING_CODES.noNormalDepth]);
 
-export function designShouldPassItsChecks(file: RunnelFile, accept: ValidationAcceptor): void {
-  const analysis = analyzeDocument(AstUtils.getDocument(file));
+export function designShouldPassItsChecks(file: RunnelFile, accept: ValidationAcceptor, criteriaDefaults: CriteriaDefaults): void {
+  const analysis = analyzeDocument(AstUtils.getDocument(file), criteriaDefaults);
   for (const finding of analysis.findings) {
     if (REPORTED_BY_VALIDATION.has(finding.code)) continue;
     accept(SEVERITY[finding.severity], finding.message, { node: file, ...diagnosticPartsOf(finding) });
@@ -46,6 +47,9 @@ function diagnosticPartsOf(finding: Finding): DiagnosticParts {
   return parts;
 }
 
-export const findingChecks: ValidationChecks<RunnelAstType> = {
-  RunnelFile: designShouldPassItsChecks,
-};
+/** The checks, judged with the criteria defaults in force when each document is validated. */
+export function createFindingChecks(criteriaDefaults: CriteriaDefaultsSource): ValidationChecks<RunnelAstType> {
+  return {
+    RunnelFile: (file, accept) => designShouldPassItsChecks(file, accept, criteriaDefaults.current),
+  };
+}

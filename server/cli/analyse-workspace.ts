@@ -3,11 +3,13 @@
  * with the others (a shared library of linings serves many designs), validated, and the requested ones analysed.
  * Texts come from the caller (disk, or git at a revision), so the same code serves `check`, `report`, `diff` and
  * the editor's comparison with the last commit. Each call uses its own services: two versions of a workspace
- * never see each other's definitions.
+ * never see each other's definitions. Validation and analysis judge with the same criteria defaults from settings
+ * (command-line options, or the editor's settings for its comparison with the last commit).
  */
 import { EmptyFileSystem, URI, type LangiumDocument } from 'langium';
 import type { Diagnostic } from 'vscode-languageserver';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import type { CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 import type { DesignAnalysis, Finding, Severity, SourceRange } from '../../language/analysis/model.js';
 import type { DesignProblem } from '../../language/diff/comparison-model.js';
 import { createRunnelServices } from '../../language/runnel-module.js';
@@ -39,9 +41,13 @@ export interface AnalysedFile {
   readonly analysis: DesignAnalysis | null;
 }
 
-/** Parses, links and validates `files` together and returns the analysis of each file in `targets` (paths). */
-export async function analyseWorkspace(files: readonly WorkspaceFile[], targets: readonly string[]): Promise<Map<string, AnalysedFile>> {
-  const { shared } = createRunnelServices(EmptyFileSystem);
+/**
+ * Parses, links and validates `files` together and returns the analysis of each file in `targets` (paths), judged
+ * with `criteriaDefaults` where a file states no criterion of its own.
+ */
+export async function analyseWorkspace(files: readonly WorkspaceFile[], targets: readonly string[], criteriaDefaults: CriteriaDefaults): Promise<Map<string, AnalysedFile>> {
+  const { shared, Runnel } = createRunnelServices(EmptyFileSystem);
+  Runnel.analysis.CriteriaDefaults.replace(criteriaDefaults);
   const documents = new Map<string, LangiumDocument>();
   for (const file of files) {
     if (documents.has(file.path)) continue;
@@ -54,19 +60,19 @@ export async function analyseWorkspace(files: readonly WorkspaceFile[], targets:
   for (const path of targets) {
     const document = documents.get(path);
     if (document === undefined) continue;
-    results.set(path, analysedFile(path, document));
+    results.set(path, analysedFile(path, document, criteriaDefaults));
   }
   return results;
 }
 
-function analysedFile(path: string, document: LangiumDocument): AnalysedFile {
+function analysedFile(path: string, document: LangiumDocument, criteriaDefaults: CriteriaDefaults): AnalysedFile {
   const langiumDiagnostics = (document.diagnostics ?? []).map(fromLangium);
   let analysis: DesignAnalysis | null = null;
   let internalProblem: FileDiagnostic[] = [];
   try {
     // Parsing recovers from syntax errors, so there is always a tree to analyse; reaches the file leaves
     // incomplete are listed as such by the analysis.
-    analysis = analyzeDocument(document);
+    analysis = analyzeDocument(document, criteriaDefaults);
   } catch (error) {
     // The analysis must not throw on user input (DEVELOPERS.md, invariant 3); if it does, say so at the top of
     // the file instead of crashing, so the other files are still checked.

@@ -188,6 +188,9 @@ const reach = {
       properties: {
         avoidFroude: { type: 'object', required: ['low', 'high'], properties: { low: number, high: number } },
         minVelocity_mps: nullableNumber,
+        limitMargin: number,
+        // Where each criterion came from: built-in default, a setting or command-line option, the design, the reach.
+        origin: { type: 'object', additionalProperties: { enum: ['default', 'setting', 'design', 'reach'] } },
       },
     },
     flows: { type: 'array', items: flowResult },

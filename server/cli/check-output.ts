@@ -60,12 +60,13 @@ export function formatDiagnosticLine(path: string, diagnostic: FileDiagnostic, s
   return `${styles.bold(`${path}:${line}:${column}:`)} ${severity} ${styles.dim(diagnostic.code)} ${diagnostic.message}`;
 }
 
-export function renderCheckText(files: readonly CheckedFile[], caution: string, styles: Styles): string {
+/** `criteriaLine` says which criteria came from command-line options (criteria-options.ts); null when none did. */
+export function renderCheckText(files: readonly CheckedFile[], caution: string, styles: Styles, criteriaLine: string | null): string {
   const lines = files.flatMap((file) => file.result.diagnostics.map((diagnostic) => formatDiagnosticLine(file.displayPath, diagnostic, styles)));
   const tally = tallyOf(files.flatMap((file) => file.result.diagnostics));
   const summary = tallyText(tally, files.length);
   const styledSummary = tally.errors > 0 ? styles.error(summary) : tally.warnings > 0 ? styles.warning(summary) : styles.success(summary);
-  return [...lines, ...(lines.length > 0 ? [''] : []), styledSummary, styles.dim(`Caution: ${caution}`), ''].join('\n');
+  return [...lines, ...(lines.length > 0 ? [''] : []), styledSummary, ...(criteriaLine === null ? [] : [criteriaLine]), styles.dim(`Caution: ${caution}`), ''].join('\n');
 }
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -9,6 +9,7 @@ import { dirname, relative, sep } from 'node:path';
 import { renderSingleFileComparison } from '../../language/diff/single-file-comparison.js';
 import type { CompareWithLastCommitResult } from '../protocol.js';
 import { analyseWorkspace, designProblemsOf } from '../cli/analyse-workspace.js';
+import type { CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 import { findRepositoryRoot, hasCommits, resolveCommit, shortCommitId } from './repository.js';
 import { revisionComparisonFiles } from './revision-workspace.js';
 import { GitError } from './run-git.js';
@@ -18,6 +19,8 @@ export interface CompareWithLastCommitInput {
   readonly filePath: string;
   /** The editor's text of the file (it may be unsaved); null to read the file from disk. */
   readonly currentText: string | null;
+  /** Criteria defaults from settings; both versions are judged with them. */
+  readonly criteriaDefaults: CriteriaDefaults;
 }
 
 export async function compareWithLastCommit(input: CompareWithLastCommitInput): Promise<CompareWithLastCommitResult> {
@@ -32,8 +35,8 @@ export async function compareWithLastCommit(input: CompareWithLastCommitInput): 
     const pair = files.pairs.find((candidate) => candidate.path === repositoryPath);
     if (pair === undefined || pair.workingPath === null) return problem(`git does not see ${repositoryPath} in the working tree (is it ignored?).`);
     const [before, after] = await Promise.all([
-      pair.basePath === null ? Promise.resolve(undefined) : analyseWorkspace(files.baseFiles, [pair.basePath]).then((results) => results.get(pair.basePath ?? '')),
-      analyseWorkspace(files.workingFiles, [pair.workingPath]).then((results) => results.get(pair.workingPath ?? '')),
+      pair.basePath === null ? Promise.resolve(undefined) : analyseWorkspace(files.baseFiles, [pair.basePath], input.criteriaDefaults).then((results) => results.get(pair.basePath ?? '')),
+      analyseWorkspace(files.workingFiles, [pair.workingPath], input.criteriaDefaults).then((results) => results.get(pair.workingPath ?? '')),
     ]);
     if (after === undefined) return problem(`Runnel could not read ${repositoryPath}.`);
     const markdown = renderSingleFileComparison({

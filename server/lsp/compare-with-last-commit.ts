@@ -12,8 +12,10 @@ import { GitError } from '../git/run-git.js';
 import { renderSingleFileComparison } from '../../language/diff/single-file-comparison.js';
 import type { DesignVersion } from '../../language/diff/compare-designs.js';
 import type { CompareWithLastCommitResult } from '../protocol.js';
+import type { CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 
-export async function compareWithLastCommit(documentUri: string, documents: LangiumDocuments): Promise<CompareWithLastCommitResult> {
+/** Both versions are judged with `criteriaDefaults`, the editor's criteria settings. */
+export async function compareWithLastCommit(documentUri: string, documents: LangiumDocuments, criteriaDefaults: CriteriaDefaults): Promise<CompareWithLastCommitResult> {
   const uri = URI.parse(documentUri);
   if (uri.scheme !== 'file') return { markdown: null, problem: 'Only a design saved as a file in a git repository can be compared with its last commit.' };
   const path = uri.fsPath;
@@ -33,8 +35,8 @@ export async function compareWithLastCommit(documentUri: string, documents: Lang
       const document = documents.getDocument(uri);
       if (document !== undefined) currentFiles.push({ path, text: document.textDocument.getText() });
     }
-    const before = existedBefore ? versionOf((await analyseWorkspace(committedFiles, [path])).get(path)) : null;
-    const after = versionOf((await analyseWorkspace(currentFiles, [path])).get(path));
+    const before = existedBefore ? versionOf((await analyseWorkspace(committedFiles, [path], criteriaDefaults)).get(path)) : null;
+    const after = versionOf((await analyseWorkspace(currentFiles, [path], criteriaDefaults)).get(path));
     if (after === null) return { markdown: null, problem: `The server does not know ${path}; open it first.` };
     const markdown = renderSingleFileComparison({
       path: repositoryPath,

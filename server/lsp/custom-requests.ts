@@ -87,7 +87,7 @@ export function registerCustomRequests(connection: Connection, shared: LangiumSh
       { markdown: null, problem: 'Runnel could not compare this file (an internal error; see the Runnel output).' },
       async () => {
         await builtDocument(params.uri, token);
-        return compareWithLastCommit(params.uri, documents);
+        return compareWithLastCommit(params.uri, documents, analyses.criteriaDefaults);
       },
     ),
   );

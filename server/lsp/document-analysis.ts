@@ -4,41 +4,52 @@
  * diagnostics, and hints, hover, code actions and the report read the same object through `DocumentAnalyses`.
  * That service also remembers the object per linked document, so a hover or hint request finds it in constant time
  * instead of re-checking every reach's links; it forgets it whenever the document is linked again (an edit, or a
- * change to a linings file it uses). The lookups below (reach by position) are built once per analysis object.
+ * change to a linings file it uses) and whenever the criteria defaults from settings change (criteria-settings.ts).
+ * The lookups below (reach by position) are built once per analysis object.
  */
 import { AstUtils, DocumentState, type AstNode, type LangiumDocument } from 'langium';
 import type { LangiumSharedServices } from 'langium/lsp';
 import { isReach, type Reach } from '../../language/generated/ast.js';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import { criteriaDefaultsKey, type CriteriaDefaults, type CriteriaDefaultsSource } from '../../language/analysis/criteria-settings.js';
 import type { DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
 import type { RunnelEditorSettings } from './runnel-settings.js';
 
-/** The analysis of the document's current version (cached by the analysis itself). */
-export function analysisOf(document: LangiumDocument): DesignAnalysis {
-  return analyzeDocument(document);
+/** The analysis of the document's current version with the given criteria defaults (cached by the analysis itself). */
+export function analysisOf(document: LangiumDocument, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
+  return analyzeDocument(document, criteriaDefaults);
 }
 
-/** The analyses of the server's documents, one per linked document version. */
+/** The analyses of the server's documents, one per linked document version and criteria defaults. */
 export class DocumentAnalyses {
-  private readonly linked = new WeakMap<LangiumDocument, DesignAnalysis>();
+  private readonly linked = new WeakMap<LangiumDocument, { readonly criteriaKey: string; readonly analysis: DesignAnalysis }>();
 
-  constructor(shared: LangiumSharedServices) {
+  constructor(
+    shared: LangiumSharedServices,
+    private readonly criteria: CriteriaDefaultsSource,
+  ) {
     // Linking again means new text or new linings and sections: the remembered analysis is no longer the one.
     shared.workspace.DocumentBuilder.onDocumentPhase(DocumentState.Linked, (document) => {
       this.linked.delete(document);
     });
   }
 
+  /** The criteria defaults from settings that the server's analyses use now. */
+  get criteriaDefaults(): CriteriaDefaults {
+    return this.criteria.current;
+  }
+
   /** The analysis of the document as it stands (computed if needed, never twice for one linked version). */
   of(document: LangiumDocument): DesignAnalysis {
+    const criteriaDefaults = this.criteria.current;
     // Before linking (mid-edit, or relinking after a linings file changed) nothing is remembered.
-    if (document.state < DocumentState.Linked) return analyzeDocument(document);
-    let analysis = this.linked.get(document);
-    if (analysis === undefined) {
-      analysis = analyzeDocument(document);
-      this.linked.set(document, analysis);
-    }
+    if (document.state < DocumentState.Linked) return analyzeDocument(document, criteriaDefaults);
+    const criteriaKey = criteriaDefaultsKey(criteriaDefaults);
+    const remembered = this.linked.get(document);
+    if (remembered !== undefined && remembered.criteriaKey === criteriaKey) return remembered.analysis;
+    const analysis = analyzeDocument(document, criteriaDefaults);
+    this.linked.set(document, { criteriaKey, analysis });
     return analysis;
   }
 }

@@ -2,9 +2,10 @@
  * Hover. On a reach's name, or on the section or lining a reach uses: the reach's results as one table with a
  * column per design flow (discharge, normal and critical depth, area, wetted perimeter, hydraulic radius, top
  * width, velocity, Froude number, regime, critical slope, specific energy, shears, freeboard, checks), its
- * bank-full capacity, its findings, and one line on method and assumptions. On a flow's name: that flow in every
- * reach it reaches. On a section or lining definition: what it is and the reaches that use it. On a channel: its
- * reaches and their status. On a number with a unit: the value in the other unit system.
+ * bank-full capacity, the criteria that came from an editor setting rather than the file, its findings, and one
+ * line on method and assumptions. On a flow's name: that flow in every reach it reaches. On a section or lining
+ * definition: what it is and the reaches that use it. On a channel: its reaches and their status. On a number
+ * with a unit: the value in the other unit system.
  * Everything comes from the document version's one analysis, in the display units the design or setting asks for.
  */
 import { AstUtils, CstUtils, DocumentState, GrammarUtils, type AstNode, type LangiumDocument, type LangiumDocuments, type References } from 'langium';
@@ -31,6 +32,8 @@ import { formatNumber, formatQuantity } from '../../language/analysis/format-qua
 import type { DesignAnalysis, FlowResult, ReachResult, SectionResult } from '../../language/analysis/model.js';
 import { isQuantityNode, QUANTITY_DIMENSIONS, readQuantity, type QuantityNode } from '../../language/analysis/quantities.js';
 import { locationOf } from '../../language/analysis/source-locations.js';
+import { CRITERION_FROM_SETTING } from '../../language/analysis/criteria-defaults.js';
+import { criteriaFromSettings } from '../../language/report/results-table.js';
 import { describeSection } from '../../language/report/section-from-result.js';
 import { escapeMarkdownInline } from '../../language/report/escape.js';
 import { DISPLAY_UNITS, fromSI, unitsOfDimension, type UnitSystem } from '../../language/units/units.js';
@@ -156,6 +159,9 @@ export function reachHover(reach: ReachResult, system: UnitSystem): string {
   }
   const capacity = reach.bankfullCapacity_m3s;
   if (capacity !== null) lines.push('', `${reach.section.fullDepth_m === null ? 'Bank-full' : 'Full-pipe'} capacity: ${formatQuantity(capacity, 'discharge', system)}`);
+  // A criterion the file does not state is named, so the file alone is not taken to explain the checks.
+  const fromSettings = criteriaFromSettings(reach.criteria, system);
+  if (fromSettings.length > 0) lines.push('', `Criteria ${CRITERION_FROM_SETTING}: ${escapeMarkdownInline(fromSettings.map((criterion) => criterion.text).join('; '))}.`);
   const findings = reach.flows.flatMap((flow) => flow.findings);
   if (findings.length > 0) {
     lines.push('', '**Findings**');

@@ -50,6 +50,7 @@ import { RunnelGeneratedModule, RunnelGeneratedSharedModule } from '../../langua
 import { RunnelModule, type RunnelAddedServices } from '../../language/runnel-module.js';
 import { RunnelCodeActionProvider } from './code-actions.js';
 import { RunnelCompletionProvider } from './completion-provider.js';
+import { followCriteriaSettings } from './criteria-from-settings.js';
 import { registerCustomRequests } from './custom-requests.js';
 import { addVersionedDiagnosticsHandler } from './diagnostics-publisher.js';
 import { DocumentAnalyses } from './document-analysis.js';
@@ -91,7 +92,7 @@ const EMPTY = {
 export const RunnelLspModule: Module<RunnelLspServices, PartialLangiumServices & RunnelLspAddedServices> = {
   runnel: {
     Settings: (services) => new RunnelSettings(services.shared),
-    Analyses: (services) => new DocumentAnalyses(services.shared),
+    Analyses: (services) => new DocumentAnalyses(services.shared, services.analysis.CriteriaDefaults),
     Log: (services) => createServerLog(services.shared.lsp.Connection),
   },
   lsp: {
@@ -128,8 +129,8 @@ export function createRunnelLspServices(context: DefaultSharedModuleContext): { 
 
 /**
  * Starts the protocol on the services' connection: Langium's handlers (documents, diagnostics, the providers
- * above), Runnel's custom requests, and the refreshes a client needs when results change without its text
- * changing (a shared linings file edited, a setting changed).
+ * above), Runnel's custom requests, the criteria settings (criteria-from-settings.ts), and the refreshes a client
+ * needs when results change without its text changing (a shared linings file edited, a setting changed).
  */
 export function startRunnelLanguageServer(shared: LangiumSharedServices, Runnel: RunnelLspServices): void {
   const connection = shared.lsp.Connection;
@@ -155,6 +156,7 @@ export function startRunnelLanguageServer(shared: LangiumSharedServices, Runnel:
     if (built.some((document) => !changedByUpdate.has(document.uri.toString()))) refreshHints();
   });
   Runnel.runnel.Settings.onDidChange(() => refreshHints());
+  followCriteriaSettings({ connection, shared, services: Runnel, settings: Runnel.runnel.Settings, log, onApplied: refreshHints });
 }
 
 /**

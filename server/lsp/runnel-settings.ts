@@ -1,14 +1,19 @@
 /**
  * The editor settings the server reads, through LSP `workspace/configuration` (section `runnel`, the names the
- * extension contributes in package.json): which quantities the inlay hints show and the units of hints, hover and
- * the report. Any editor may send them; missing or malformed values fall back to the defaults below, so a client
- * that sends no settings gets the documented behaviour.
+ * extension contributes in package.json): which quantities the inlay hints show, the units of hints, hover and
+ * the report, and defaults for design criteria (`runnel.criteria.*`). Any editor may send them; missing or
+ * malformed values fall back to the defaults below, so a client that sends no settings gets the documented
+ * behaviour.
  *
- * Read here and nowhere else. Design criteria are not editor settings: they are written in the design files
- * (`criteria { }`), so the editor, the command line and CI always judge a design alike.
+ * Read here and nowhere else. Criteria settings are only defaults for what a design file leaves unsaid: a value
+ * written in the file (`criteria { }`) always wins, because the file is the record. The command line takes the
+ * same values as options (`--freeboard`, ...), so CI can judge a design exactly as the editor does, and wherever a
+ * criterion came from a setting the hover, the report and the finding say so. Here they are kept as written;
+ * criteria-settings.ts (server/lsp) reads them with the language's own parser and applies them.
  */
 import type { LangiumSharedServices } from 'langium/lsp';
 import { Emitter, type Event } from 'vscode-languageserver';
+import { CRITERION_SETTINGS, type CriterionSettingName } from '../../language/analysis/criteria-settings.js';
 import { SETTINGS_SECTION } from '../protocol.js';
 
 /** The settings section, typed once in server/protocol.ts for the server and the extension. */
@@ -27,15 +32,20 @@ export interface HintQuantities {
 /** `runnel.displayUnits`: as the design says (`auto`), or always SI or US customary. */
 export type DisplayUnitsSetting = 'auto' | 'SI' | 'US';
 
+/** `runnel.criteria.*` as written (trimmed); '' is not set. */
+export type CriteriaSettingValues = Readonly<Record<CriterionSettingName, string>>;
+
 export interface RunnelEditorSettings {
   readonly inlayHints: HintQuantities;
   readonly displayUnits: DisplayUnitsSetting;
+  readonly criteria: CriteriaSettingValues;
 }
 
 /** The defaults of package.json `contributes.configuration`. */
 export const DEFAULT_SETTINGS: RunnelEditorSettings = {
   inlayHints: { normalDepth: true, criticalDepth: true, velocity: true, froudeNumber: true, maximumProfileDepth: true },
   displayUnits: 'auto',
+  criteria: { freeboard: '', nearCriticalFroude: '', minimumVelocity: '', limitMargin: '' },
 };
 
 /** How long a request waits for the client's first answer to `workspace/configuration` before using defaults, ms. */
@@ -53,6 +63,12 @@ export function parseSettings(section: unknown): RunnelEditorSettings {
     return typeof value === 'boolean' ? value : DEFAULT_SETTINGS.inlayHints[key];
   };
   const units = record['displayUnits'];
+  const criteriaNested = isRecord(record['criteria']) ? record['criteria'] : {};
+  const criterion = (name: CriterionSettingName): string => {
+    const value = criteriaNested[name] ?? record[`criteria.${name}`];
+    // A number is kept as text so that it is refused with a reason (it lacks its unit) rather than ignored.
+    return typeof value === 'string' ? value.trim() : typeof value === 'number' ? String(value) : '';
+  };
   return {
     inlayHints: {
       normalDepth: flag('normalDepth'),
@@ -62,6 +78,7 @@ export function parseSettings(section: unknown): RunnelEditorSettings {
       maximumProfileDepth: flag('maximumProfileDepth'),
     },
     displayUnits: units === 'SI' || units === 'US' || units === 'auto' ? units : DEFAULT_SETTINGS.displayUnits,
+    criteria: Object.fromEntries(CRITERION_SETTINGS.map((setting) => [setting.name, criterion(setting.name)])) as Record<CriterionSettingName, string>,
   };
 }
 
@@ -69,6 +86,7 @@ export function parseSettings(section: unknown): RunnelEditorSettings {
 export class RunnelSettings {
   private latest: RunnelEditorSettings = DEFAULT_SETTINGS;
   private readonly ready: Promise<void>;
+  private readonly fetched: Promise<void>;
   private readonly changed = new Emitter<RunnelEditorSettings>();
 
   constructor(shared: LangiumSharedServices) {
@@ -80,14 +98,21 @@ export class RunnelSettings {
     });
     // Langium fetches the section once after `initialized`; read it from there. A client that never answers must
     // not stall hints and hover, hence the time limit.
-    this.ready = Promise.race([
-      configuration.ready.then(async () => {
-        const inlayHints: unknown = await configuration.getConfiguration(SETTINGS_SECTION, 'inlayHints');
-        const displayUnits: unknown = await configuration.getConfiguration(SETTINGS_SECTION, 'displayUnits');
-        this.latest = parseSettings({ inlayHints, displayUnits });
-      }),
-      new Promise<void>((resolve) => setTimeout(resolve, FIRST_CONFIGURATION_WAIT_MS).unref()),
-    ]).catch(() => undefined);
+    this.fetched = configuration.ready
+      .then(async () => {
+        const section: Record<string, unknown> = {};
+        const keys = ['inlayHints', 'displayUnits', 'criteria', ...CRITERION_SETTINGS.map((setting) => `criteria.${setting.name}`)];
+        for (const key of keys) section[key] = await configuration.getConfiguration(SETTINGS_SECTION, key);
+        this.latest = parseSettings(section);
+      })
+      .catch(() => undefined);
+    this.ready = Promise.race([this.fetched, new Promise<void>((resolve) => setTimeout(resolve, FIRST_CONFIGURATION_WAIT_MS).unref())]);
+  }
+
+  /** The settings as the client first sent them, however long that takes (the defaults if the fetch failed). */
+  async fetchedFromClient(): Promise<RunnelEditorSettings> {
+    await this.fetched;
+    return this.latest;
   }
 
   /** The settings in force (the defaults until the client has answered). */

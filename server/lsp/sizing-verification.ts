@@ -8,6 +8,7 @@
 import { EmptyFileSystem, TextDocument, URI, type LangiumDocument } from 'langium';
 import type { TextEdit } from 'vscode-languageserver';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import type { CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 import type { Finding } from '../../language/analysis/model.js';
 import { createRunnelServices } from '../../language/runnel-module.js';
 
@@ -16,6 +17,8 @@ export interface VerificationTarget {
   readonly uri: string;
   readonly channel: string;
   readonly reach: string;
+  /** The criteria defaults from settings the server analyses the design with (the same checks must pass). */
+  readonly criteriaDefaults: CriteriaDefaults;
 }
 
 export class SizingVerifier {
@@ -47,7 +50,7 @@ export class SizingVerifier {
       await shared.workspace.DocumentBuilder.build(documents, { validation: false });
       const design = documents.find((document) => document.uri.toString() === URI.parse(target.uri).toString());
       if (design === undefined) return undefined;
-      const reach = analyzeDocument(design)
+      const reach = analyzeDocument(design, target.criteriaDefaults)
         .channels.find((channel) => channel.name === target.channel)
         ?.reaches.find((candidate) => candidate.name === target.reach);
       return reach?.flows.flatMap((flow) => flow.findings);

@@ -3,14 +3,16 @@ import { expect } from 'vitest';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import type { DesignAnalysis, FlowResult, ReachResult } from '../../language/analysis/model.js';
 import { buildText } from '../language/language-test-kit.js';
+import { NO_CRITERIA_DEFAULTS, type CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 
 export const FOOT_M = 0.3048;
 export const CFS_M3S = FOOT_M ** 3;
 /** 1 lbf/ft2 in Pa: 0.45359237 kg x 9.80665 m/s2 / 0.3048^2 m2 (exact definitions, NIST SP 811 App. B; derived). */
 export const PSF_PA = (0.45359237 * 9.80665) / FOOT_M ** 2;
 
-export async function analyse(text: string, otherFiles: Readonly<Record<string, string>> = {}): Promise<DesignAnalysis> {
-  return analyzeDocument(await buildText(text, otherFiles));
+/** The analysis of a design text; `criteriaDefaults` stand for editor settings or command-line options. */
+export async function analyse(text: string, otherFiles: Readonly<Record<string, string>> = {}, criteriaDefaults: CriteriaDefaults = NO_CRITERIA_DEFAULTS): Promise<DesignAnalysis> {
+  return analyzeDocument(await buildText(text, otherFiles), criteriaDefaults);
 }
 
 export function reachOf(analysis: DesignAnalysis, channel: string, reach: string): ReachResult {

@@ -9,6 +9,7 @@ import { analyzeDocument, forgetAnalysis } from '../../language/analysis/analyze
 import { createRunnelServices } from '../../language/runnel-module.js';
 import { buildWorkspace, plainDiagnostics, sampleFiles } from '../language/language-test-kit.js';
 import { flowOf, reachOf } from './analysis-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 /** Files held in memory, readable by Langium's workspace the way the Node file system is. */
 function memoryFileSystem(files: Map<string, string>): FileSystemProvider {
@@ -34,10 +35,10 @@ const LIBRARY = (manningN: number): string => `library "L"\nlining turf { n ${ma
 describe('the analysis cache', () => {
   it('returns the same result for the same document version', async () => {
     const { documents } = await buildWorkspace({ 'design.runnel': DESIGN, 'library.runnel': LIBRARY(0.03) });
-    const first = analyzeDocument(documents[0]!);
-    expect(analyzeDocument(documents[0]!)).toBe(first);
+    const first = analyzeDocument(documents[0]!, NO_CRITERIA_DEFAULTS);
+    expect(analyzeDocument(documents[0]!, NO_CRITERIA_DEFAULTS)).toBe(first);
     forgetAnalysis(documents[0]!);
-    expect(analyzeDocument(documents[0]!)).not.toBe(first);
+    expect(analyzeDocument(documents[0]!, NO_CRITERIA_DEFAULTS)).not.toBe(first);
   });
 
   it('recomputes when a lining the design uses changes in another file', async () => {
@@ -49,12 +50,12 @@ describe('the analysis cache', () => {
     const design = await shared.workspace.LangiumDocuments.getOrCreateDocument(URI.parse('memory:/design.runnel'));
     const library = await shared.workspace.LangiumDocuments.getOrCreateDocument(URI.parse('memory:/library.runnel'));
     await shared.workspace.DocumentBuilder.build([design, library], { validation: true });
-    const before = analyzeDocument(design);
+    const before = analyzeDocument(design, NO_CRITERIA_DEFAULTS);
     expect(reachOf(before, 'c', 'r').lining.manningN).toBe(0.03);
 
     files.set('memory:/library.runnel', LIBRARY(0.05));
     await shared.workspace.DocumentBuilder.update([URI.parse('memory:/library.runnel')], []);
-    const after = analyzeDocument(design);
+    const after = analyzeDocument(design, NO_CRITERIA_DEFAULTS);
     expect(after).not.toBe(before);
     expect(reachOf(after, 'c', 'r').lining.manningN).toBe(0.05);
     // Rougher lining, deeper flow (Manning: y grows with n).
@@ -84,7 +85,7 @@ describe('broken input never throws', () => {
           const document = documents[0]!;
           const internal = plainDiagnostics(document).filter((diagnostic) => diagnostic.message.startsWith('An error occurred'));
           expect(internal, text).toEqual([]);
-          const analysis = analyzeDocument(document);
+          const analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
           for (const finding of analysis.findings) expect(finding.message, text).not.toMatch(/NaN|undefined/);
         },
       ),
@@ -95,7 +96,7 @@ describe('broken input never throws', () => {
   it('handles an empty file and a file of only comments', async () => {
     for (const text of ['', '// nothing here\n/* at all */']) {
       const { documents } = await buildWorkspace({ 'empty.runnel': text });
-      expect(analyzeDocument(documents[0]!).channels).toEqual([]);
+      expect(analyzeDocument(documents[0]!, NO_CRITERIA_DEFAULTS).channels).toEqual([]);
     }
   });
 });

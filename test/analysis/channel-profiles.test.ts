@@ -28,6 +28,7 @@ import { CHECK_JSON_SCHEMA } from '../../server/cli/check-json-schema.js';
 import { CHECK_JSON_SCHEMA_VERSION } from '../../server/cli/check-output.js';
 import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
 import { analyse, expectClose, flowOf, FOOT_M, CFS_M3S, reachOf } from './analysis-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 function findingsWith(analysis: DesignAnalysis, code: string): Finding[] {
   return analysis.findings.filter((finding) => finding.code === code);
@@ -374,7 +375,7 @@ channel c {
 
 describe('the samples', async () => {
   const { documents } = await buildWorkspace(sampleFiles());
-  const analyses = documents.map((document) => analyzeDocument(document));
+  const analyses = documents.map((document) => analyzeDocument(document, NO_CRITERIA_DEFAULTS));
   const canal = analyses.find((analysis) => analysis.uri.endsWith('irrigation-canal.runnel'))!;
 
   it('the irrigation canal shows backwater over-topping a reach whose normal depth is well within its bank', () => {
@@ -438,7 +439,7 @@ describe('the profiles in `runnel check --format json`', () => {
     const tally = { errors: 0, warnings: 0, information: 0 };
     const files = documents
       .filter((document) => !document.uri.path.endsWith('linings.runnel'))
-      .map((document) => ({ path: document.uri.path, uri: document.uri.toString(), summary: tally, diagnostics: [], analysis: JSON.parse(JSON.stringify(analyzeDocument(document))) as unknown }));
+      .map((document) => ({ path: document.uri.path, uri: document.uri.toString(), summary: tally, diagnostics: [], analysis: JSON.parse(JSON.stringify(analyzeDocument(document, NO_CRITERIA_DEFAULTS))) as unknown }));
     const output = { schemaVersion: CHECK_JSON_SCHEMA_VERSION, tool: { name: 'runnel', version: '0' }, caution: 'c', summary: { ...tally, files: files.length }, files };
     expect(validate(output), JSON.stringify(validate.errors?.slice(0, 5))).toBe(true);
     const profiles = files.flatMap((file) => (file.analysis as DesignAnalysis).channels.flatMap((channel) => channel.profiles ?? []));

@@ -19,13 +19,14 @@ import {
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { buildWorkspace } from '../language/language-test-kit.js';
 import { CFS_M3S, FOOT_M, expectClose, flowOf, reachOf } from './analysis-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const SAMPLES = join(import.meta.dirname, '..', '..', 'samples');
 const read = (name: string): string => readFileSync(join(SAMPLES, name), 'utf8');
 
 async function sampleAnalysis(name: string) {
   const { documents } = await buildWorkspace({ [name]: read(name), 'linings.runnel': read('linings.runnel') });
-  return analyzeDocument(documents[0]!);
+  return analyzeDocument(documents[0]!, NO_CRITERIA_DEFAULTS);
 }
 
 const RELATIVE = 1e-9;

@@ -9,6 +9,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import { NO_CRITERIA_DEFAULTS, type CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { LspWorkspace, memoryUri, sampleTexts } from '../server/lsp-workspace.js';
 
@@ -73,7 +74,7 @@ function applyEdit(text: string, edit: Edit): string {
 async function freshAnalysis(files: Readonly<Record<string, string>>, design: string): Promise<DesignAnalysis> {
   const workspace = await LspWorkspace.create();
   await workspace.set(files);
-  return analyzeDocument(workspace.document(memoryUri(design)));
+  return analyzeDocument(workspace.document(memoryUri(design)), NO_CRITERIA_DEFAULTS);
 }
 
 /** The analysis without its document version (the fresh workspace counts versions from 1). */
@@ -93,13 +94,13 @@ describe('the analysis after an edit', () => {
           const editor = await LspWorkspace.create();
           const files: Record<string, string> = { [design]: designText, 'linings.runnel': samples['linings.runnel'] ?? '' };
           await editor.set(files);
-          analyzeDocument(editor.document(memoryUri(design)));
+          analyzeDocument(editor.document(memoryUri(design)), NO_CRITERIA_DEFAULTS);
           for (const edit of edits) {
             // One edit in three goes to the linings file the design uses.
             const name = edit.file % 3 === 2 ? 'linings.runnel' : design;
             files[name] = applyEdit(files[name] ?? '', edit);
             await editor.set({ [name]: files[name] ?? '' });
-            const incremental = analyzeDocument(editor.document(memoryUri(design)));
+            const incremental = analyzeDocument(editor.document(memoryUri(design)), NO_CRITERIA_DEFAULTS);
             const fresh = await freshAnalysis(files, design);
             expect(withoutVersion(incremental)).toEqual(withoutVersion(fresh));
           }
@@ -112,16 +113,31 @@ describe('the analysis after an edit', () => {
   it('takes over the channels an edit did not touch, and only those', async () => {
     const editor = await LspWorkspace.create();
     const [document] = await editor.set({ 'three.runnel': THREE_CHANNELS });
-    const before = analyzeDocument(document!);
+    const before = analyzeDocument(document!, NO_CRITERIA_DEFAULTS);
     const [edited] = await editor.set({ 'three.runnel': THREE_CHANNELS.replace('slope 1.4 %', 'slope 1.2 %') });
-    const after = analyzeDocument(edited!);
+    const after = analyzeDocument(edited!, NO_CRITERIA_DEFAULTS);
     expect(after.channels.map((channel) => channel.name)).toEqual(['north', 'middle', 'south']);
     expect(after.channels[0]).toBe(before.channels[0]);
     expect(after.channels[1]).not.toBe(before.channels[1]);
     expect(after.channels[2]).toBe(before.channels[2]);
     // A line inserted above every channel moves them all: none is taken over.
     const [shifted] = await editor.set({ 'three.runnel': `\n${THREE_CHANNELS}` });
-    const moved = analyzeDocument(shifted!);
+    const moved = analyzeDocument(shifted!, NO_CRITERIA_DEFAULTS);
     expect(moved.channels.some((channel, index) => channel === after.channels[index])).toBe(false);
+  });
+
+  it('computes every channel again when the criteria defaults from settings change', async () => {
+    // Only the reaches of a design silent on a criterion take the setting: strip the design's criteria block.
+    const silent = THREE_CHANNELS.replace('criteria {\n  freeboard 0.5 ft\n}\n', '');
+    const editor = await LspWorkspace.create();
+    const [document] = await editor.set({ 'three.runnel': silent });
+    const before = analyzeDocument(document!, NO_CRITERIA_DEFAULTS);
+    const twoFeet: CriteriaDefaults = { freeboard: { kind: 'fixed', height_m: 0.6096 } };
+    const after = analyzeDocument(document!, twoFeet);
+    expect(after.channels.some((channel, index) => channel === before.channels[index])).toBe(false);
+    const fresh = await LspWorkspace.create();
+    const [same] = await fresh.set({ 'three.runnel': silent });
+    expect(withoutVersion(after)).toEqual(withoutVersion(analyzeDocument(same!, twoFeet)));
+    expect(after.findings.some((finding) => finding.code === 'freeboard-below-required')).toBe(true);
   });
 });

@@ -10,6 +10,7 @@ import { forgetChannelProfiles } from '../../language/analysis/channel-profiles.
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
 import { createRunnelServices } from '../../language/runnel-module.js';
 import { plainDiagnostics } from '../language/language-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 export function generatedDesign(reachCount: number): string {
   const lines = [
@@ -46,11 +47,11 @@ describe('a 500-reach, 3-flow design', () => {
     forgetAnalysis(document);
     forgetChannelProfiles();
     const analysisStarted = performance.now();
-    const analysis = analyzeDocument(document);
+    const analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
     const analysisMs = performance.now() - analysisStarted;
     forgetAnalysis(document);
     const rememberedStarted = performance.now();
-    analyzeDocument(document);
+    analyzeDocument(document, NO_CRITERIA_DEFAULTS);
     const rememberedMs = performance.now() - rememberedStarted;
 
     const findingCodes = new Set<string>(Object.values(FINDING_CODES));

@@ -7,11 +7,12 @@ import { describe, expect, it } from 'vitest';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
 import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 describe('samples', () => {
   it('show every finding between them', async () => {
     const { documents } = await buildWorkspace(sampleFiles());
-    const shown = new Set(documents.flatMap((document) => analyzeDocument(document).findings.map((finding) => finding.code)));
+    const shown = new Set(documents.flatMap((document) => analyzeDocument(document, NO_CRITERIA_DEFAULTS).findings.map((finding) => finding.code)));
     const notShown: readonly string[] = [FINDING_CODES.depthSolveFailed, FINDING_CODES.profileNotComputed, FINDING_CODES.hydraulicJumpSweptOut];
     const expected = Object.values(FINDING_CODES).filter((code) => !notShown.includes(code));
     expect([...expected].filter((code) => !shown.has(code))).toEqual([]);
@@ -20,7 +21,7 @@ describe('samples', () => {
   it('analyse every reach of every design (none incomplete), with the caution and assumptions attached', async () => {
     const { documents } = await buildWorkspace(sampleFiles());
     for (const document of documents) {
-      const analysis = analyzeDocument(document);
+      const analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
       expect(analysis.incompleteReaches, analysis.uri).toEqual([]);
       expect(analysis.caution).toMatch(/licensed engineer/);
       expect(analysis.assumptions.length).toBeGreaterThan(3);
@@ -30,7 +31,7 @@ describe('samples', () => {
 
   it('use SI in the canal and US units in the ditches and the outfall', async () => {
     const { documents } = await buildWorkspace(sampleFiles());
-    const units = Object.fromEntries(documents.map((document) => [document.uri.path.split('/').pop(), analyzeDocument(document).displayUnits]));
+    const units = Object.fromEntries(documents.map((document) => [document.uri.path.split('/').pop(), analyzeDocument(document, NO_CRITERIA_DEFAULTS).displayUnits]));
     expect(units).toMatchObject({ 'irrigation-canal.runnel': 'SI', 'roadside-ditches.runnel': 'US', 'storm-drain-outfall.runnel': 'US' });
   });
 });

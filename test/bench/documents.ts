@@ -30,6 +30,7 @@ import { TextDocument } from 'vscode-languageserver-textdocument';
 import { analyzeDocument, forgetAnalysis } from '../../language/analysis/analyze-design.js';
 import { LspWorkspace } from '../server/lsp-workspace.js';
 import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const SIZES = [50, 500, 5_000] as const;
 const REACHES_PER_CHANNEL = 50;
@@ -141,7 +142,7 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
       await applyEdit(round);
       const linked = cpuNowMs();
       const current = workspace.document(uri);
-      analyzeDocument(current);
+      analyzeDocument(current, NO_CRITERIA_DEFAULTS);
       const analysed = cpuNowMs();
       await validator.validateDocument(current, { validation: { categories: ['built-in', 'fast'] } } as never);
       const validated = cpuNowMs();
@@ -165,7 +166,7 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
     const current = workspace.document(uri);
     forgetAnalysis(current, { everything: true });
     const start = cpuNowMs();
-    analyzeDocument(current);
+    analyzeDocument(current, NO_CRITERIA_DEFAULTS);
     wholeAnalysis.push(cpuNowMs() - start);
   }
 

@@ -10,6 +10,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { compareWithLastCommit } from '../../server/git/compare-with-last-commit.js';
 import { listChangedDesignFiles, readFileAtCommit, resolveCommit } from '../../server/git/repository.js';
 import { ditchDesign, LINING_LIBRARY, PROCESS_TEST_TIMEOUT_MS, runRunnelInProcess, runRunnelProcess, temporaryFolder, writeFiles } from './cli-harness.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 function git(cwd: string, ...args: string[]): string {
   return execFileSync('git', ['-c', 'user.name=Runnel test', '-c', 'user.email=test@example.invalid', '-c', 'commit.gpgsign=false', ...args], {
@@ -144,7 +145,7 @@ describe('a library change shows in the designs that use it', () => {
 describe('compare with the last commit (the editor command)', () => {
   it('compares the editor text with HEAD', async () => {
     const folder = repositoryWith({ 'linings.runnel': LINING_LIBRARY, 'ditch.runnel': ditchDesign() });
-    const result = await compareWithLastCommit({ filePath: join(folder, 'ditch.runnel'), currentText: ditchDesign({ bottomFt: 3 }) });
+    const result = await compareWithLastCommit({ filePath: join(folder, 'ditch.runnel'), currentText: ditchDesign({ bottomFt: 3 }), criteriaDefaults: NO_CRITERIA_DEFAULTS });
     expect(result.problem).toBeNull();
     expect(result.markdown).toMatch(/^\*\*Runnel design review: worse\*\*/);
     expect(result.markdown).toMatch(/Compared `last commit \([0-9a-f]{7,}\)` → `editor`/);
@@ -154,21 +155,21 @@ describe('compare with the last commit (the editor command)', () => {
   it('says so when the file is new since the last commit', async () => {
     const folder = repositoryWith({ 'linings.runnel': LINING_LIBRARY });
     writeFiles(folder, { 'new.runnel': ditchDesign() });
-    const result = await compareWithLastCommit({ filePath: join(folder, 'new.runnel'), currentText: null });
+    const result = await compareWithLastCommit({ filePath: join(folder, 'new.runnel'), currentText: null, criteriaDefaults: NO_CRITERIA_DEFAULTS });
     expect(result.markdown).toContain('new file');
   });
 
   it('explains when the file is not in a repository, or the repository has no commit', async () => {
     const outside = temporaryFolder('outside');
     writeFiles(outside, { 'ditch.runnel': ditchDesign() });
-    expect(await compareWithLastCommit({ filePath: join(outside, 'ditch.runnel'), currentText: null })).toEqual({
+    expect(await compareWithLastCommit({ filePath: join(outside, 'ditch.runnel'), currentText: null, criteriaDefaults: NO_CRITERIA_DEFAULTS })).toEqual({
       markdown: null,
       problem: 'This file is not in a git repository, so there is no last commit to compare it with.',
     });
     const empty = temporaryFolder('empty-repo');
     git(empty, 'init', '-q');
     writeFiles(empty, { 'ditch.runnel': ditchDesign() });
-    const result = await compareWithLastCommit({ filePath: join(empty, 'ditch.runnel'), currentText: null });
+    const result = await compareWithLastCommit({ filePath: join(empty, 'ditch.runnel'), currentText: null, criteriaDefaults: NO_CRITERIA_DEFAULTS });
     expect(result.problem).toMatch(/no commits yet/);
   });
 });

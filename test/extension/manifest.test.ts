@@ -7,7 +7,11 @@ import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { COMMAND_IDS, LANGUAGE_ID, OUTPUT_CHANNEL_NAME, REPORT_VIEW_TYPE, SERVER_BUNDLE_PATH, SETTINGS_SECTION } from '../../extension/identifiers.js';
+import { EmptyFileSystem } from 'langium';
+import { CRITERION_SETTINGS, readCriterionSetting } from '../../language/analysis/criteria-settings.js';
+import { createRunnelServices } from '../../language/runnel-module.js';
 import { UNIT_TABLE } from '../../language/units/units.js';
+import { DEFAULT_SETTINGS, parseSettings } from '../../server/lsp/runnel-settings.js';
 
 const ROOT = join(import.meta.dirname, '..', '..');
 
@@ -26,6 +30,7 @@ interface SettingSchema {
   readonly type: string;
   readonly default: unknown;
   readonly enum?: readonly unknown[];
+  readonly examples?: readonly unknown[];
   readonly pattern?: string;
   readonly description?: string;
   readonly markdownDescription?: string;
@@ -314,8 +319,50 @@ describe('manifest: settings', () => {
     expect(settings['runnel.trace.server']?.enum).toEqual(['off', 'messages', 'verbose']);
   });
 
-  it('offers no criteria settings: criteria live in the design files, so the editor and the command line agree', () => {
-    expect(keys.filter((key) => key.startsWith('runnel.criteria.'))).toEqual([]);
+  it('every setting is read: the language client reads trace.server, the server parses every other one', () => {
+    // The language client (vscode-languageclient) reads `<client id>.trace.server` itself.
+    expect(LANGUAGE_ID).toBe(SETTINGS_SECTION);
+    expect(allExtensionSource).toMatch(/new LanguageClient\(LANGUAGE_ID,/);
+    const unread = keys.filter((key) => {
+      if (key === `${SETTINGS_SECTION}.trace.server`) return false;
+      const value = nonDefaultValue(key, settings[key]);
+      const name = key.slice(SETTINGS_SECTION.length + 1);
+      const flat = parseSettings({ [name]: value });
+      const nested = parseSettings(nestedRecord(name, value));
+      return JSON.stringify(flat) === JSON.stringify(DEFAULT_SETTINGS) || JSON.stringify(nested) !== JSON.stringify(flat);
+    });
+    expect(unread, 'contributed settings the server does not parse (or parses differently nested and flat)').toEqual([]);
+  });
+
+  it('offers one criteria setting per criterion the server and the command line read, nothing more', () => {
+    const contributed = keys.filter((key) => key.startsWith(`${SETTINGS_SECTION}.criteria.`));
+    expect(contributed.sort()).toEqual(CRITERION_SETTINGS.map((setting) => `${SETTINGS_SECTION}.criteria.${setting.name}`).sort());
+  });
+
+  it('each criteria setting is text, empty by default, says that the file wins and names its command-line option', () => {
+    for (const setting of CRITERION_SETTINGS) {
+      const schema = settings[`${SETTINGS_SECTION}.criteria.${setting.name}`];
+      expect(schema?.type, setting.name).toBe('string');
+      expect(schema?.default, setting.name).toBe('');
+      expect(schema?.markdownDescription, setting.name).toMatch(/always wins/);
+      expect(schema?.markdownDescription, setting.name).toContain(`\`--${setting.option}\``);
+      expect(schema?.markdownDescription, setting.name).toContain(`\`${setting.keywords}\``);
+      // The examples offered in the settings editor are the ones the command line's help gives.
+      expect(schema?.examples, setting.name).toEqual(setting.examples);
+    }
+  });
+
+  it('every example of a criteria setting reads with the language parser, and the default (empty) sets nothing', async () => {
+    const { Runnel } = createRunnelServices(EmptyFileSystem);
+    for (const setting of CRITERION_SETTINGS) {
+      for (const example of settings[`${SETTINGS_SECTION}.criteria.${setting.name}`]?.examples ?? []) {
+        const reading = await readCriterionSetting(Runnel, setting, String(example));
+        expect(reading.ok, `${setting.name} = ${String(example)}`).toBe(true);
+        if (reading.ok) expect(Object.keys(reading.defaults), `${setting.name} = ${String(example)}`).toEqual([setting.criterion]);
+      }
+      const empty = await readCriterionSetting(Runnel, setting, '');
+      expect(empty.ok && Object.keys(empty.defaults).length === 0, setting.name).toBe(true);
+    }
   });
 
   it('changes editor defaults only for Runnel files', () => {
@@ -422,4 +469,22 @@ function snippetLiteralWords(body: string): string[] {
 
 function escapeRegExp(text: string): string {
   return text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+}
+
+/** A value of a setting's type other than its default: the flipped flag, another choice, or its first example. */
+function nonDefaultValue(key: string, schema: SettingSchema | undefined): unknown {
+  if (schema === undefined) throw new Error(`no schema for ${key}`);
+  if (schema.type === 'boolean') return !(schema.default as boolean);
+  if (schema.enum !== undefined) return schema.enum.find((choice) => choice !== schema.default);
+  const example = schema.examples?.[0];
+  if (example === undefined) throw new Error(`${key}: a text setting needs examples, for the settings editor and for this test`);
+  return example;
+}
+
+/** `inlayHints.velocity` = v as VS Code sends it: `{ inlayHints: { velocity: v } }`. */
+function nestedRecord(dottedName: string, value: unknown): Record<string, unknown> {
+  return dottedName
+    .split('.')
+    .reverse()
+    .reduce<unknown>((inner, part) => ({ [part]: inner }), value) as Record<string, unknown>;
 }

@@ -13,6 +13,7 @@ import { placeReaches, renderLongitudinalSvg } from '../../language/report/longi
 import { buildText } from '../language/language-test-kit.js';
 import { buildAnalysis, fixtureGeometry, siDesign } from './fixtures.js';
 import { axisFromTicks, byRole, numberAttribute, parseMarkup, pathVertices, type MarkupElement } from './svg-query.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const PIXEL_TOLERANCE = 0.6;
 
@@ -267,7 +268,7 @@ channel c {
   reach tail { section lined  lining concrete  slope 0.1 %  length 300 m }
   outlet water level 102.9 m
 }`);
-  const analysis = analyzeDocument(document);
+  const analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
   const channel = analysis.channels[0]!;
   const profile = channel.profiles?.[0];
   const view = draw(channel);

@@ -10,6 +10,7 @@ import { renderReportHtml, renderReportMarkdown } from '../../language/report/in
 import { buildProfileSummary } from '../../language/report/results-table.js';
 import { buildText } from '../language/language-test-kit.js';
 import { byRole, parseMarkup } from './svg-query.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const FOOT_M = 0.3048;
 
@@ -30,7 +31,7 @@ channel crossing {
 }`;
 
 describe('the profile summary of a channel', async () => {
-  const analysis = analyzeDocument(await buildText(DESIGN));
+  const analysis = analyzeDocument(await buildText(DESIGN), NO_CRITERIA_DEFAULTS);
   const spillway = analysis.channels.find((channel) => channel.name === 'spillway')!;
   const summary = buildProfileSummary(spillway, 'US')!;
 

@@ -21,6 +21,7 @@ import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { renderReportHtml } from '../../language/report/report-html.js';
 import { renderReportMarkdown } from '../../language/report/report-markdown.js';
 import { createRunnelServices } from '../../language/runnel-module.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 /** Generous for a loaded 2-core machine: a sample builds, analyses and reports in tens of milliseconds. */
 export const PIPELINE_BOUND_MS = 4_000;
@@ -132,7 +133,7 @@ export class DocumentHarness {
         }
       }
 
-      analysis = analyzeDocument(document);
+      analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
       for (const path of nonFiniteNumbers(analysis)) problems.push(`analysis holds a non-finite number at ${path}`);
       for (const finding of analysis.findings) {
         readable(`finding ${finding.code}`, finding.message);
@@ -191,7 +192,7 @@ export class DocumentHarness {
     if (document === undefined || analysis === undefined) {
       // Fill the outcome with something inspectable; problems already says what failed.
       const fallback = await this.workspace.set(name, '');
-      return { problems, document: fallback, analysis: analyzeDocument(fallback), diagnostics: [], formatted, elapsedMs };
+      return { problems, document: fallback, analysis: analyzeDocument(fallback, NO_CRITERIA_DEFAULTS), diagnostics: [], formatted, elapsedMs };
     }
     return { problems, document, analysis, diagnostics, formatted, elapsedMs };
   }
@@ -209,7 +210,7 @@ export class DocumentHarness {
       const twice = TextDocument.applyEdits(TextDocument.create('inmemory://twice', 'runnel', 0, formatted), again);
       if (twice !== formatted) problems.push(`formatting is not idempotent:\n--- once\n${formatted}\n--- twice\n${twice}`);
     }
-    const afterMeaning = JSON.stringify(meaningOf(analyzeDocument(reformatted)));
+    const afterMeaning = JSON.stringify(meaningOf(analyzeDocument(reformatted, NO_CRITERIA_DEFAULTS)));
     if (afterMeaning !== beforeMeaning) problems.push(`formatting changed the analysis:\n--- before\n${beforeMeaning}\n--- after\n${afterMeaning}`);
     const afterCodes = diagnosticCodes(reformatted.diagnostics ?? []);
     if (afterCodes !== beforeCodes) problems.push(`formatting changed the diagnostics: ${beforeCodes} -> ${afterCodes}`);

@@ -8,6 +8,7 @@ import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { renderReportHtml } from '../../language/report/report-html.js';
 import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 export interface KnownDefect {
   readonly id: string;
@@ -31,7 +32,7 @@ async function sampleReport(name: string, change: (analysis: DesignAnalysis) => 
   const { documents } = await buildWorkspace({ [name]: samples[name] ?? '', 'linings.runnel': samples['linings.runnel'] ?? '' });
   const document = documents[0];
   if (document === undefined) throw new Error('no document');
-  const analysis = structuredClone(analyzeDocument(document)) as DesignAnalysis;
+  const analysis = structuredClone(analyzeDocument(document, NO_CRITERIA_DEFAULTS)) as DesignAnalysis;
   change(analysis);
   return shown(renderReportHtml(analysis, { generatedAt: new Date(0), fileName: name }));
 }
@@ -66,7 +67,7 @@ export const KNOWN_DEFECTS: readonly KnownDefect[] = [
         const { documents } = await buildWorkspace(files);
         const document = documents[0];
         if (document === undefined) throw new Error('no document');
-        return analyzeDocument(document).channels.flatMap((channel) => channel.profiles ?? []).reduce((sum, profile) => sum + profile.points.length, 0);
+        return analyzeDocument(document, NO_CRITERIA_DEFAULTS).channels.flatMap((channel) => channel.profiles ?? []).reduce((sum, profile) => sum + profile.points.length, 0);
       };
       // A profile is drawn and searched well with a few hundred points; these need tens of thousands.
       const longReachPoints = await points({ 'roadside-ditches.runnel': longReach, 'linings.runnel': samples['linings.runnel'] ?? '' });

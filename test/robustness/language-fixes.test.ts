@@ -11,6 +11,7 @@ import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { formatNumber, formatQuantity, formatRatio } from '../../language/analysis/format-quantity.js';
 import { BASE, CHANNEL, buildText, expectDiagnostic, expectNoDiagnostic, plainDiagnostics } from '../language/language-test-kit.js';
 import { nonFiniteNumbers } from './document-harness.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const TOO_LARGE = { code: 'number-too-large', severity: 'error', message: 'This number is too large to compute with.' } as const;
 
@@ -34,7 +35,7 @@ describe('numbers too large for a double, written without a unit', () => {
 
   it('a Froude band ending at 1e309 is too large and the band in force stays finite', async () => {
     await expectDiagnostic({ ...TOO_LARGE, source: `${BASE}\ncriteria { avoid froude 0.89 to <|1e309|> }\n${CHANNEL}` });
-    const analysis = analyzeDocument(await buildText(`${BASE}\ncriteria { avoid froude 0.89 to 1e309 }\n${CHANNEL}`));
+    const analysis = analyzeDocument(await buildText(`${BASE}\ncriteria { avoid froude 0.89 to 1e309 }\n${CHANNEL}`), NO_CRITERIA_DEFAULTS);
     expect(nonFiniteNumbers(analysis)).toEqual([]);
     expect(analysis.criteria.origin['avoidFroude']).toBe('default');
     await expectNoDiagnostic(`${BASE}\ncriteria { avoid froude 0.89 to 1.13 }\n${CHANNEL}`, 'number-too-large');
@@ -57,21 +58,21 @@ describe('results that overflow', () => {
       severity: 'error',
       message: 'These inverts and the reach length give a slope too large to compute with.',
     });
-    const analysis = analyzeDocument(await buildText(invertsChannel('inverts 1e300 m to -1e300 m', '1e-300 m')));
+    const analysis = analyzeDocument(await buildText(invertsChannel('inverts 1e300 m to -1e300 m', '1e-300 m')), NO_CRITERIA_DEFAULTS);
     expect(nonFiniteNumbers(analysis)).toEqual([]);
     expect(analysis.incompleteReaches.map((reach) => reach.reason)).toEqual(['its inverts and length give a slope too large to compute with']);
     // Twin: ordinary inverts give a reach with a slope (0.5 m over 100 m = 0.005).
     await expectNoDiagnostic(invertsChannel('inverts 100.5 m to 100 m', '100 m'), 'number-too-large');
-    const ordinary = analyzeDocument(await buildText(invertsChannel('inverts 100.5 m to 100 m', '100 m')));
+    const ordinary = analyzeDocument(await buildText(invertsChannel('inverts 100.5 m to 100 m', '100 m')), NO_CRITERIA_DEFAULTS);
     expect(Math.abs((ordinary.channels[0]?.reaches[0]?.slope ?? 0) - 0.005)).toBeLessThan(1e-12);
   });
 
   it('a bank-full capacity too large for a double is no capacity, never Infinity', async () => {
     const design = (bank: string): string => `${BASE}\nsection huge trapezoid { bottom width 2 ft  side slopes 3:1  bank height ${bank} }\nchannel c {\n  reach r { section huge  lining grass  slope 1 %  length 100 ft }\n  outlet free fall\n}`;
-    const overflowing = analyzeDocument(await buildText(design('1e300 m')));
+    const overflowing = analyzeDocument(await buildText(design('1e300 m')), NO_CRITERIA_DEFAULTS);
     expect(nonFiniteNumbers(overflowing)).toEqual([]);
     expect(overflowing.channels[0]?.reaches[0]?.bankfullCapacity_m3s).toBeNull();
-    const ordinary = analyzeDocument(await buildText(design('2 ft')));
+    const ordinary = analyzeDocument(await buildText(design('2 ft')), NO_CRITERIA_DEFAULTS);
     expect(ordinary.channels[0]?.reaches[0]?.bankfullCapacity_m3s).toBeGreaterThan(0);
   });
 });

@@ -29,6 +29,7 @@ import { renderReportHtml } from '../../language/report/report-html.js';
 import { renderReportMarkdown } from '../../language/report/report-markdown.js';
 import { withPanelScript } from '../../extension/report-page.js';
 import { buildWorkspace, sampleFiles } from '../language/language-test-kit.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const CHROMIUM_PATH = '/usr/bin/chromium';
 const chromiumPresent = existsSync(CHROMIUM_PATH);
@@ -111,7 +112,7 @@ describe.skipIf(!chromiumPresent)('report safety in headless Chromium', () => {
     const { documents } = await buildWorkspace({ 'hostile.runnel': hostileDesign(), 'linings.runnel': sampleFiles()['linings.runnel'] ?? '' });
     const document = documents[0];
     if (document === undefined) throw new Error('no document');
-    analysis = analyzeDocument(document);
+    analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
     profile = mkdtempSync(join(tmpdir(), 'runnel-report-safety-'));
     context = await chromium.launchPersistentContext(profile, {
       executablePath: CHROMIUM_PATH,

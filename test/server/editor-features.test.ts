@@ -15,6 +15,7 @@ import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { containProvider, type ServerLog } from '../../server/lsp/error-containment.js';
 import { DEFAULT_SETTINGS, parseSettings } from '../../server/lsp/runnel-settings.js';
 import { LspWorkspace } from './lsp-workspace.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 const FOOT_M = 0.3048;
 const CFS_M3S = 0.028316846592;
@@ -92,7 +93,7 @@ describe('one analysis per document version', () => {
     if (document === undefined) throw new Error('no document');
     const analyses = workspace.services.Runnel.runnel.Analyses;
     const first = analyses.of(document);
-    expect(analyzeDocument(document)).toBe(first);
+    expect(analyzeDocument(document, NO_CRITERIA_DEFAULTS)).toBe(first);
     expect(analyses.of(document)).toBe(first);
     expect(first.channels[0]?.reaches).toHaveLength(2);
 
@@ -254,10 +255,18 @@ describe('settings', () => {
     expect(parseSettings({ inlayHints: { velocity: false }, displayUnits: 'SI' })).toEqual({
       inlayHints: { ...DEFAULT_SETTINGS.inlayHints, velocity: false },
       displayUnits: 'SI',
+      criteria: DEFAULT_SETTINGS.criteria,
     });
     expect(parseSettings({ 'inlayHints.froudeNumber': false, displayUnits: 'metric' }).inlayHints.froudeNumber).toBe(false);
     expect(parseSettings({ 'inlayHints.froudeNumber': false, displayUnits: 'metric' }).displayUnits).toBe('auto');
     expect(parseSettings({ inlayHints: { normalDepth: 'no' } }).inlayHints.normalDepth).toBe(true);
+  });
+
+  it('keeps the criteria settings as written (trimmed), nested or flat; a number is kept so it can be refused with a reason', () => {
+    expect(parseSettings({ criteria: { freeboard: ' 0.5 ft ', limitMargin: '20 %' } }).criteria).toEqual({ ...DEFAULT_SETTINGS.criteria, freeboard: '0.5 ft', limitMargin: '20 %' });
+    expect(parseSettings({ 'criteria.minimumVelocity': '2 ft/s' }).criteria.minimumVelocity).toBe('2 ft/s');
+    expect(parseSettings({ criteria: { freeboard: 0.5 } }).criteria.freeboard).toBe('0.5');
+    expect(parseSettings({ criteria: { freeboard: true, nearCriticalFroude: null } }).criteria).toEqual(DEFAULT_SETTINGS.criteria);
   });
 });
 

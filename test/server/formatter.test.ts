@@ -9,6 +9,7 @@ import { formattedText, formattingEdits } from '../../server/lsp/formatter.js';
 import { analysisOf } from '../../server/lsp/document-analysis.js';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { LspWorkspace, sampleTexts } from './lsp-workspace.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
 async function format(text: string, name = 'design.runnel', others: Record<string, string> = {}): Promise<{ workspace: LspWorkspace; document: LangiumDocument; formatted: string | undefined }> {
   const workspace = await LspWorkspace.create();
@@ -64,7 +65,7 @@ describe('formatting every sample', () => {
       const original = await format(text, name, others);
       const reformatted = await format(original.formatted ?? '', name, others);
       expect(tokens(reformatted.workspace, original.formatted ?? '')).toEqual(tokens(original.workspace, text));
-      expect(meaning(analysisOf(reformatted.document))).toEqual(meaning(analysisOf(original.document)));
+      expect(meaning(analysisOf(reformatted.document, NO_CRITERIA_DEFAULTS))).toEqual(meaning(analysisOf(original.document, NO_CRITERIA_DEFAULTS)));
       expect(reformatted.document.diagnostics?.map((diagnostic) => diagnostic.code)).toEqual(original.document.diagnostics?.map((diagnostic) => diagnostic.code));
     });
   }

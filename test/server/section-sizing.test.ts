@@ -19,6 +19,7 @@ import { BOTTOM_WIDTH_STEPS, failedChecks, NOMINAL_PIPE_DIAMETERS, sizingInputsO
 import { sectionGeometryFromResult } from '../../language/report/section-from-result.js';
 import { FINDING_CODES } from '../../language/analysis/finding-messages.js';
 import { LspWorkspace, memoryUri, sampleTexts } from './lsp-workspace.js';
+import { NO_CRITERIA_DEFAULTS, type CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 
 const FOOT_M = 0.3048;
 const GRAVITY = 9.80665;
@@ -232,8 +233,16 @@ function candidatesOf(c: SizingCase): { text: string; valueM: number }[] {
   });
 }
 
-async function codeActionsAtReach(text: string, files: Record<string, string> = {}, name = 'design.runnel', reachName = 'r'): Promise<{ workspace: LspWorkspace; actions: CodeAction[] }> {
+async function codeActionsAtReach(
+  text: string,
+  files: Record<string, string> = {},
+  name = 'design.runnel',
+  reachName = 'r',
+  criteriaDefaults: CriteriaDefaults = NO_CRITERIA_DEFAULTS,
+): Promise<{ workspace: LspWorkspace; actions: CodeAction[] }> {
   const workspace = await LspWorkspace.create();
+  // As the server does from the editor's runnel.criteria.* settings.
+  workspace.services.Runnel.analysis.CriteriaDefaults.replace(criteriaDefaults);
   const [document] = await workspace.set({ [name]: text, ...files });
   if (document === undefined) throw new Error('no document');
   const line = text.split('\n').findIndex((candidate) => candidate.trim().startsWith(`reach ${reachName} `));
@@ -301,6 +310,21 @@ describe('size this section: the smallest standard size an independent computati
     );
   });
 
+  it('sizes for a freeboard that comes from the editor setting where the file states none (0.5 ft = 0.1524 m)', async () => {
+    const c = CASES[1] as SizingCase;
+    const silentText = c.designText.replace('freeboard 0.5 ft\n  ', '');
+    expect(silentText).not.toContain('freeboard');
+    const candidates = candidatesOf(c);
+    const withFreeboard = candidates.find((candidate) => judge(c.shapeAt(candidate.valueM), c).passes);
+    const withoutFreeboard = candidates.find((candidate) => judge(c.shapeAt(candidate.valueM), { ...c, freeboardM: undefined }).passes);
+    // The case must tell the two apart: the freeboard asks for a wider ditch.
+    expect(withFreeboard?.valueM ?? 0).toBeGreaterThan(withoutFreeboard?.valueM ?? Infinity);
+    const fromSetting = await codeActionsAtReach(silentText, {}, 'design.runnel', 'r', { freeboard: { kind: 'fixed', height_m: 0.1524 } });
+    expect(Object.values(fromSetting.actions[0]?.edit?.changes ?? {}).flat()[0]?.newText).toBe(withFreeboard?.text);
+    const plain = await codeActionsAtReach(silentText);
+    expect(Object.values(plain.actions[0]?.edit?.changes ?? {}).flat()[0]?.newText).toBe(withoutFreeboard?.text);
+  });
+
   it('says why for a V-shaped section, which has no bottom width', async () => {
     const text = designText({
       system: 'US',
@@ -336,7 +360,7 @@ describe('sizing rules agree with the analysis', () => {
     const documents = await workspace.set(sampleTexts());
     let reaches = 0;
     for (const document of documents) {
-      for (const channel of analysisOf(document).channels) {
+      for (const channel of analysisOf(document, NO_CRITERIA_DEFAULTS).channels) {
         for (const reach of channel.reaches) {
           const rebuilt = sectionGeometryFromResult(reach.section);
           if (!rebuilt.ok) throw new Error(rebuilt.reason);
@@ -363,7 +387,7 @@ describe('applying the sizing edit', () => {
     const edits = actions[0]?.edit?.changes?.[memoryUri('design.runnel')] ?? [];
     expect(actions[0]?.title).toMatch(/^Set bottom width of section 's'/);
     const [resized] = await workspace.set({ 'design.runnel': applyEdits(text, edits) });
-    const reach = resized === undefined ? undefined : analysisOf(resized).channels[0]?.reaches[0];
+    const reach = resized === undefined ? undefined : analysisOf(resized, NO_CRITERIA_DEFAULTS).channels[0]?.reaches[0];
     expect(reach?.status).toBe('pass');
   });
 
@@ -372,14 +396,14 @@ describe('applying the sizing edit', () => {
     const text = `${CASES[1]?.designText ?? ''}channel d {\n  reach other {\n    section s\n    lining l\n    slope 0.2 %\n    length 100 ft\n  }\n  outlet normal depth\n}\n`;
     const workspace0 = await LspWorkspace.create();
     const [before] = await workspace0.set({ 'design.runnel': text });
-    const otherBefore = before === undefined ? undefined : analysisOf(before).channels[1]?.reaches[0];
+    const otherBefore = before === undefined ? undefined : analysisOf(before, NO_CRITERIA_DEFAULTS).channels[1]?.reaches[0];
     const { workspace, actions } = await codeActionsAtReach(text);
     expect(actions[0]?.title).toMatch(/^Give reach 'r' its own section 's-r'/);
     const edits = actions[0]?.edit?.changes?.[memoryUri('design.runnel')] ?? [];
     expect(edits).toHaveLength(2);
     const [resized] = await workspace.set({ 'design.runnel': applyEdits(text, edits) });
     if (resized === undefined) throw new Error('no document');
-    const analysis = analysisOf(resized);
+    const analysis = analysisOf(resized, NO_CRITERIA_DEFAULTS);
     // The edit leaves a well-formed design: nothing unparsable, unresolved or named twice.
     const structural = new Set(['lexing-error', 'parsing-error', 'unknown-reference', 'duplicate-name']);
     expect(resized.diagnostics?.filter((diagnostic) => structural.has(String(diagnostic.code)))).toEqual([]);

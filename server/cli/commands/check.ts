@@ -7,6 +7,7 @@ import { pathToFileURL } from 'node:url';
 import { CAUTION } from '../../../language/analysis/provenance.js';
 import { describeOptions, parseArguments, UsageError, type OptionSpec } from '../arguments.js';
 import { checkJsonDocument, checkSarifLog, renderCheckText, renderGithubAnnotations, type CheckedFile } from '../check-output.js';
+import { CRITERIA_OPTIONS, CRITERIA_OPTIONS_HELP, criteriaFromOptions, criteriaOptionsLine } from '../criteria-options.js';
 import { loadDesigns } from '../load-designs.js';
 import { writeOutput } from '../output-file.js';
 import { PLAIN_STYLES, stylesFor, type CliContext } from '../terminal.js';
@@ -19,6 +20,7 @@ export const CHECK_OPTIONS: readonly OptionSpec[] = [
   { name: 'format', short: 'f', value: 'FORMAT', choices: CHECK_FORMATS, description: 'output format; default text' },
   { name: 'out', short: 'o', value: 'FILE', description: 'write the output to FILE instead of standard output' },
   { name: 'workspace', short: 'w', value: 'FOLDER', description: 'load the other design files from FOLDER (default: see below)' },
+  ...CRITERIA_OPTIONS,
   { name: 'help', short: 'h', description: 'show this help' },
 ];
 
@@ -43,6 +45,8 @@ Formats:
 Each file is checked with the other design files of its workspace, so names from a shared library resolve:
 the --workspace folder, else the git repository that holds the file, else the current folder (when the file
 is inside it), else the file's folder. Folders named node_modules or starting with a dot are skipped.
+
+${CRITERIA_OPTIONS_HELP}
 `;
 }
 
@@ -56,8 +60,10 @@ export async function runCheck(args: readonly string[], context: CliContext): Pr
   const format = (parsed.options.get('format') ?? 'text') as (typeof CHECK_FORMATS)[number];
   const out = parsed.options.get('out');
   const workspace = parsed.options.get('workspace');
+  const criteria = await criteriaFromOptions(parsed.options);
+  for (const warning of criteria.warnings) context.stderr.write(`runnel: warning: ${warning}\n`);
   const targets = expandTargets(parsed.positionals, context.cwd);
-  const results = await loadDesigns(targets, context.cwd, workspace === undefined ? {} : { workspace });
+  const results = await loadDesigns(targets, context.cwd, { criteriaDefaults: criteria.defaults, ...(workspace === undefined ? {} : { workspace }) });
 
   const sourceRoot = gitRootAbove(context.cwd) ?? context.cwd;
   const files: CheckedFile[] = results.map((result) => ({
@@ -79,7 +85,7 @@ export async function runCheck(args: readonly string[], context: CliContext): Pr
       text = renderGithubAnnotations(files);
       break;
     case 'text':
-      text = renderCheckText(files, caution, out === undefined ? stylesFor(context.stdout, context.env) : PLAIN_STYLES);
+      text = renderCheckText(files, caution, out === undefined ? stylesFor(context.stdout, context.env) : PLAIN_STYLES, criteriaOptionsLine(criteria));
       break;
   }
   writeOutput(text, out, context);

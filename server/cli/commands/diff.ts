@@ -23,6 +23,8 @@ import { findRepositoryRoot, resolveCommit, shortCommitId } from '../../git/repo
 import { revisionComparisonFiles } from '../../git/revision-workspace.js';
 import { analyseWorkspace, designProblemsOf, type AnalysedFile } from '../analyse-workspace.js';
 import { describeOptions, parseArguments, UsageError, type OptionSpec } from '../arguments.js';
+import { CRITERIA_OPTIONS, CRITERIA_OPTIONS_HELP, criteriaFromOptions, criteriaOptionsLine } from '../criteria-options.js';
+import type { CriteriaDefaults } from '../../../language/analysis/criteria-settings.js';
 import { loadDesigns } from '../load-designs.js';
 import { writeOutput } from '../output-file.js';
 import { parseNumberOption, parsePercentOption, parseQuantityOption } from '../quantity-option.js';
@@ -43,6 +45,7 @@ export const DIFF_OPTIONS: readonly OptionSpec[] = [
   { name: 'min-shear-change', value: 'SHEAR', description: 'smallest change of a shear stress that counts, e.g. 0.01psf' },
   { name: 'min-capacity-change', value: 'DISCHARGE', description: 'smallest change of a capacity that counts, e.g. 0.1cfs' },
   { name: 'workspace', short: 'w', value: 'FOLDER', description: 'for OLD NEW: load the other design files from FOLDER' },
+  ...CRITERIA_OPTIONS,
   { name: 'help', short: 'h', description: 'show this help' },
 ];
 
@@ -73,6 +76,8 @@ ${policies}
 A result counts as changed when its difference reaches both the relative threshold (default
 ${formatPercent(t.relative)}) and the absolute one of its kind (defaults ${formatQuantity(t.length_m, 'length', 'SI')} ~ ${formatQuantity(t.length_m, 'length', 'US')}, ${formatQuantity(t.velocity_mps, 'velocity', 'SI')},
 Froude ${t.froudeNumber}, ${formatQuantity(t.shear_Pa, 'shear', 'SI')}, ${formatQuantity(t.discharge_m3s, 'discharge', 'SI')}).
+
+${CRITERIA_OPTIONS_HELP} Both versions are judged with the same options.
 `;
 }
 
@@ -108,17 +113,21 @@ export async function runDiff(args: readonly string[], context: CliContext): Pro
   const base = parsed.options.get('base');
 
   if (parsed.options.has('workspace') && base !== undefined) throw new UsageError('--workspace applies to OLD NEW only; --base uses the repository');
+  const criteria = await criteriaFromOptions(parsed.options);
+  for (const warning of criteria.warnings) context.stderr.write(`runnel: warning: ${warning}\n`);
   const comparison =
     base === undefined
-      ? await compareTwoFiles(parsed.positionals, parsed.options.get('workspace'), context)
-      : await compareWithRevision(base, parsed.positionals, context);
+      ? await compareTwoFiles(parsed.positionals, parsed.options.get('workspace'), criteria.defaults, context)
+      : await compareWithRevision(base, parsed.positionals, criteria.defaults, context);
 
   const report = compareDesignVersions(comparison.pairs, { beforeLabel: comparison.beforeLabel, afterLabel: comparison.afterLabel, thresholds });
   const reason = failureReason(report, failOn);
   const text =
     format === 'json'
       ? renderComparisonJson(report, failOn)
-      : renderComparisonMarkdown(report, { policyLine: reason === null ? `CI policy --fail-on ${failOn}: passes.` : `CI policy: fails, ${reason}.` });
+      : renderComparisonMarkdown(report, {
+          policyLine: [reason === null ? `CI policy --fail-on ${failOn}: passes.` : `CI policy: fails, ${reason}.`, criteriaOptionsLine(criteria)].filter((line) => line !== null).join(' '),
+        });
   writeOutput(text, parsed.options.get('out'), context);
   return reason === null ? 0 : 1;
 }
@@ -129,7 +138,7 @@ interface Comparison {
   readonly afterLabel: string;
 }
 
-async function compareTwoFiles(positionals: readonly string[], workspace: string | undefined, context: CliContext): Promise<Comparison> {
+async function compareTwoFiles(positionals: readonly string[], workspace: string | undefined, criteriaDefaults: CriteriaDefaults, context: CliContext): Promise<Comparison> {
   if (positionals.length !== 2) {
     throw new UsageError(positionals.length < 2 ? 'give two design files (OLD NEW), or --base REV' : 'give exactly two design files (OLD NEW), or --base REV with PATHS');
   }
@@ -137,7 +146,7 @@ async function compareTwoFiles(positionals: readonly string[], workspace: string
   const oldPath = oldTargets?.length === 1 ? oldTargets[0] : undefined;
   const newPath = newTargets?.length === 1 ? newTargets[0] : undefined;
   if (oldPath === undefined || newPath === undefined) throw new UsageError('OLD and NEW must be design files, not folders');
-  const options = workspace === undefined ? {} : { workspace };
+  const options = { criteriaDefaults, ...(workspace === undefined ? {} : { workspace }) };
   // Each version is loaded without the other: both define the same names.
   const [before] = await loadDesigns([oldPath], context.cwd, { ...options, exclude: [newPath] });
   const [after] = await loadDesigns([newPath], context.cwd, { ...options, exclude: [oldPath] });
@@ -150,7 +159,7 @@ async function compareTwoFiles(positionals: readonly string[], workspace: string
   };
 }
 
-async function compareWithRevision(revision: string, positionals: readonly string[], context: CliContext): Promise<Comparison> {
+async function compareWithRevision(revision: string, positionals: readonly string[], criteriaDefaults: CriteriaDefaults, context: CliContext): Promise<Comparison> {
   const root = await gitOrUsage(() => findRepositoryRoot(context.cwd));
   if (root === null) throw new UsageError('--base needs a git repository, and the current folder is not in one');
   const commit = await gitOrUsage(() => resolveCommit(root, revision));
@@ -161,8 +170,8 @@ async function compareWithRevision(revision: string, positionals: readonly strin
   if (limits.length > 0 && pairs.length === 0) {
     throw new UsageError(`no design files under ${positionals.map((path) => `'${path}'`).join(', ')} in the working tree or at ${revision}`);
   }
-  const baseResults = await analyseWorkspace(files.baseFiles, pairs.flatMap((pair) => (pair.basePath === null ? [] : [pair.basePath])));
-  const workingResults = await analyseWorkspace(files.workingFiles, pairs.flatMap((pair) => (pair.workingPath === null ? [] : [pair.workingPath])));
+  const baseResults = await analyseWorkspace(files.baseFiles, pairs.flatMap((pair) => (pair.basePath === null ? [] : [pair.basePath])), criteriaDefaults);
+  const workingResults = await analyseWorkspace(files.workingFiles, pairs.flatMap((pair) => (pair.workingPath === null ? [] : [pair.workingPath])), criteriaDefaults);
   const shown = (repositoryPath: string): string => displayPath(resolve(root, ...repositoryPath.split('/')), context.cwd);
   const designPairs: DesignPair[] = pairs
     .map((pair) => ({

@@ -7,6 +7,7 @@ import { basename } from 'node:path';
 import { renderReportHtml, renderReportMarkdown } from '../../../language/report/index.js';
 import { describeOptions, parseArguments, UsageError, type OptionSpec } from '../arguments.js';
 import { formatDiagnosticLine } from '../check-output.js';
+import { CRITERIA_OPTIONS, CRITERIA_OPTIONS_HELP, criteriaFromOptions } from '../criteria-options.js';
 import { loadDesigns } from '../load-designs.js';
 import { writeOutput } from '../output-file.js';
 import { stylesFor, type CliContext } from '../terminal.js';
@@ -18,6 +19,7 @@ export const REPORT_OPTIONS: readonly OptionSpec[] = [
   { name: 'out', short: 'o', value: 'FILE', description: 'write the report to FILE (HTML when it ends in .html or .htm)' },
   { name: 'format', short: 'f', value: 'FORMAT', choices: REPORT_FORMATS, description: 'report format; default markdown, or html for an .html FILE' },
   { name: 'workspace', short: 'w', value: 'FOLDER', description: 'load the other design files from FOLDER (as for runnel check)' },
+  ...CRITERIA_OPTIONS,
   { name: 'help', short: 'h', description: 'show this help' },
 ];
 
@@ -34,6 +36,8 @@ error; the exit status is 1 when the file has parse or validation errors (the re
 
 Options:
 ${describeOptions(REPORT_OPTIONS)}
+
+${CRITERIA_OPTIONS_HELP}
 `;
 }
 
@@ -47,9 +51,11 @@ export async function runReport(args: readonly string[], context: CliContext): P
   const out = parsed.options.get('out');
   const format = parsed.options.get('format') ?? (out !== undefined && /\.html?$/i.test(out) ? 'html' : 'markdown');
   const workspace = parsed.options.get('workspace');
+  const criteria = await criteriaFromOptions(parsed.options);
+  for (const warning of criteria.warnings) context.stderr.write(`runnel: warning: ${warning}\n`);
   const targets = expandTargets(parsed.positionals, context.cwd);
   if (targets.length !== 1) throw new UsageError('give exactly one design file, not a folder');
-  const [result] = await loadDesigns(targets, context.cwd, workspace === undefined ? {} : { workspace });
+  const [result] = await loadDesigns(targets, context.cwd, { criteriaDefaults: criteria.defaults, ...(workspace === undefined ? {} : { workspace }) });
   if (result === undefined) throw new UsageError(`cannot read '${parsed.positionals[0] ?? ''}'`);
 
   const shownPath = displayPath(result.path, context.cwd);
