@@ -24,8 +24,9 @@ export const DEFAULT_MINIMUM_STEPS_PER_REACH = 10;
  * Largest change of depth in one step, as a fraction of the depth at the start of the step. With the
  * arithmetic-mean friction slope (a trapezoidal rule, second-order accurate) 2 % keeps the depth at every computed
  * station within about 0.03 % of an accurate integration of the gradually-varied-flow equation, and the distance
- * over which an M1 or M2 curve comes within 5 % of normal depth within about 0.5 % (measured over random
- * trapezoidal channels in test/hydraulics/profile/standard-step.test.ts).
+ * over which an M1 or M2 curve comes within 5 % of normal depth within 0.3 % in 99 % of cases and 0.8 % at worst
+ * (measured over some 4,000 random trapezoidal channels against the integration in
+ * test/hydraulics/profile/standard-step.test.ts).
  */
 export const DEFAULT_MAXIMUM_DEPTH_CHANGE_RATIO = 0.02;
 
