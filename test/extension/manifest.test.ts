@@ -46,7 +46,7 @@ interface Manifest {
   readonly scripts: Readonly<Record<string, string>>;
   readonly activationEvents: readonly string[];
   readonly capabilities: {
-    readonly untrustedWorkspaces: { readonly supported: boolean | 'limited'; readonly description?: string };
+    readonly untrustedWorkspaces: { readonly supported: boolean | 'limited'; readonly description?: string; readonly restrictedConfigurations?: readonly string[] };
     readonly virtualWorkspaces: boolean | { readonly supported: boolean | 'limited'; readonly description?: string };
   };
   readonly contributes: {
@@ -378,6 +378,13 @@ describe('manifest: settings', () => {
       expect(allExtensionSource).toMatch(/workspace\.isTrusted/);
     }
     expect(typeof virtualWorkspaces === 'object' && virtualWorkspaces.description).toBeTruthy();
+  });
+
+  it('an untrusted folder cannot set the criteria defaults through its workspace settings', () => {
+    const restricted = manifest.capabilities.untrustedWorkspaces.restrictedConfigurations ?? [];
+    const criteriaSettings = Object.keys(settings).filter((key) => key.startsWith(`${SETTINGS_SECTION}.criteria.`));
+    expect(criteriaSettings.length).toBeGreaterThan(0);
+    expect([...restricted].sort()).toEqual([...criteriaSettings].sort());
   });
 });
 
