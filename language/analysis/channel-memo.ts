@@ -17,6 +17,7 @@ import { isFlowTable, type Channel, type RunnelFile } from '../generated/ast.js'
 import { designCriteriaBlocks } from './design-inputs.js';
 import type { ChannelResult, Finding, IncompleteReach } from './model.js';
 import { documentUriOf } from './source-locations.js';
+import { forEachPropertyValue } from '../syntax/node-properties.js';
 
 /** A channel's result and the reaches of it the analysis left out. */
 export interface RememberedChannel {
@@ -87,26 +88,12 @@ export function channelKey(channel: Channel, contextKey: string, memo: ChannelMe
   return parts.join('\u0000');
 }
 
-/**
- * Every reference in a node and the nodes it contains, in document order. The walk over the node's own properties
- * does what AstUtils.streamAst + streamReferences do, without their iterator objects: it runs once per channel
- * per edit, so it is on the path the speed budget measures.
- */
+/** Every reference in a node and the nodes it contains, in document order. */
 function visitReferences(node: AstNode, visit: (reference: Reference | MultiReference) => void): void {
-  for (const property of Object.keys(node)) {
-    if (property.startsWith('$')) continue;
-    const value: unknown = (node as unknown as Record<string, unknown>)[property];
-    if (Array.isArray(value)) {
-      for (const item of value) visitValue(item, visit);
-    } else {
-      visitValue(value, visit);
-    }
-  }
-}
-
-function visitValue(value: unknown, visit: (reference: Reference | MultiReference) => void): void {
-  if (isReference(value) || isMultiReference(value)) visit(value);
-  else if (isAstNode(value)) visitReferences(value, visit);
+  forEachPropertyValue(node, (value) => {
+    if (isReference(value) || isMultiReference(value)) visit(value);
+    else if (isAstNode(value)) visitReferences(value, visit);
+  });
 }
 
 /** A node's first-token position and text: equal for two nodes means equal content at the same place. */

@@ -19,6 +19,7 @@ import {
   type ScopeProvider,
   type ValidationOptions,
 } from 'langium';
+import { forEachPropertyValue } from '../syntax/node-properties.js';
 import { closestName } from './closest-name.js';
 import { DIAGNOSTICS, KIND_WORDS } from './diagnostic-messages.js';
 
@@ -112,14 +113,8 @@ export class RunnelDocumentValidator extends DefaultDocumentValidator {
 /** The nodes a node contains directly, in property order (as Langium's streamContents yields them). */
 function childNodes(node: AstNode): AstNode[] {
   const children: AstNode[] = [];
-  for (const property of Object.keys(node)) {
-    if (property.startsWith('$')) continue;
-    const value: unknown = (node as unknown as Record<string, unknown>)[property];
-    if (Array.isArray(value)) {
-      for (const item of value) if (isAstNode(item)) children.push(item);
-    } else if (isAstNode(value)) {
-      children.push(value);
-    }
-  }
+  forEachPropertyValue(node, (value) => {
+    if (isAstNode(value)) children.push(value);
+  });
   return children;
 }
