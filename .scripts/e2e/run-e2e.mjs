@@ -369,8 +369,14 @@ async function check(name, body) {
 
 // ------------------------------------------------------------------------------------------------ helpers
 
+/**
+ * The environment with Node 24 first on the PATH. Under `npm run e2e` the outer npm (Node 20) leaves its own
+ * settings in npm_* variables, which an inner npm reads as configuration: its user agent among them, which
+ * code-server's install script reads to decide which Node it runs on. They are dropped, as is NODE.
+ */
 function withNode24(node24) {
-  return { ...process.env, PATH: `${node24.bin}:${process.env.PATH ?? ''}` };
+  const env = Object.fromEntries(Object.entries(process.env).filter(([name]) => !name.toLowerCase().startsWith('npm_') && name !== 'NODE'));
+  return { ...env, PATH: `${node24.bin}:${process.env.PATH ?? ''}` };
 }
 
 function run(command, args, options = {}) {
