@@ -106,6 +106,25 @@ export const COMPARED_FLOW_RESULTS: readonly ComparedQuantity[] = [
     read: (flow) => flow.freeboard_m,
     direction: (before, after) => sign(before, after, 'better'),
   },
+  // Along the reach, from the channel's water-surface profile: what a change downstream (an outlet level, a
+  // culvert) does to a reach whose own inputs did not change. Absent where no profile was computed.
+  {
+    key: 'profileMaximumDepth_m',
+    label: 'deepest water along the reach (profile)',
+    kind: 'length',
+    threshold: (t) => t.length_m,
+    read: (flow) => flow.profile?.maximumDepth_m ?? null,
+    // As with normal depth, its consequence is judged through the freeboard along the reach.
+    direction: () => 'neutral',
+  },
+  {
+    key: 'profileMinimumFreeboard_m',
+    label: 'least freeboard along the reach (profile)',
+    kind: 'length',
+    threshold: (t) => t.length_m,
+    read: (flow) => flow.profile?.minimumFreeboard_m ?? null,
+    direction: (before, after) => sign(before, after, 'better'),
+  },
   {
     key: 'maxShear_Pa',
     label: 'maximum shear',

@@ -2,7 +2,12 @@
  * Which way a result change is judged: the rules of compared-quantities.ts, case by case, each with its twin.
  */
 import { describe, expect, it } from 'vitest';
+import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
+import type { DesignAnalysis } from '../../language/analysis/model.js';
+import { compareDesignPair } from '../../language/diff/compare-designs.js';
 import { COMPARED_CAPACITY, COMPARED_FLOW_RESULTS, type DirectionContext } from '../../language/diff/compared-quantities.js';
+import { buildText } from '../language/language-test-kit.js';
 
 function rule(key: string): (before: number, after: number, context: DirectionContext) => string {
   const quantity = COMPARED_FLOW_RESULTS.find((item) => item.key === key);
@@ -65,5 +70,47 @@ describe('freeboard, shear, capacity, depth', () => {
   it('depths are shown but not judged (freeboard carries the consequence)', () => {
     expect(rule('normalDepth_m')(1, 2, context)).toBe('neutral');
     expect(rule('criticalDepth_m')(2, 1, context)).toBe('neutral');
+  });
+});
+
+describe('the water surface along a reach, from the profile', () => {
+  // A mild rectangular channel of two reaches ending in a pool: raising the pool raises the backwater (an M1 curve)
+  // in both reaches while nothing else in the file changes. At the outlet the water stands at the pool level, so the
+  // deepest water of the lower reach is the pool level minus its downstream invert (the outlet control; common
+  // practice), 1.20 m then 1.60 m here.
+  const design = (poolLevelM: number): string =>
+    [
+      'design "Pool outlet"',
+      'units SI',
+      'criteria {\n  freeboard 0.1 m\n}',
+      'flows {\n  q = 2 m3/s\n}',
+      'section box rectangle {\n  bottom width 3 m\n  bank height 2 m\n}',
+      'lining concrete {\n  n 0.015\n}',
+      'channel c {',
+      '  reach upper {\n    section box\n    lining concrete\n    inverts 10.20 m to 10.10 m\n    length 200 m\n  }',
+      '  reach lower {\n    section box\n    lining concrete\n    inverts 10.10 m to 10.00 m\n    length 200 m\n  }',
+      `  outlet water level ${poolLevelM.toFixed(2)} m`,
+      '}',
+    ].join('\n');
+  const analysed = async (text: string): Promise<DesignAnalysis> => analyzeDocument(await buildText(text), NO_CRITERIA_DEFAULTS);
+
+  it('a higher pool shows as deeper water and less freeboard along both reaches, normal depth unchanged', async () => {
+    const before = await analysed(design(11.2));
+    const after = await analysed(design(11.6));
+    const comparison = compareDesignPair({ path: 'pool.runnel', previousPath: null, before: { analysis: before, problems: [] }, after: { analysis: after, problems: [] } });
+    const lowerBefore = before.channels[0]?.reaches[1]?.flows[0]?.profile;
+    const lowerAfter = after.channels[0]?.reaches[1]?.flows[0]?.profile;
+    expect(lowerBefore?.maximumDepth_m).toBeCloseTo(1.2, 9);
+    expect(lowerAfter?.maximumDepth_m).toBeCloseTo(1.6, 9);
+    for (const reachName of ['upper', 'lower']) {
+      const changes = comparison.reaches.find((reach) => reach.reach === reachName)?.flows[0]?.resultChanges ?? [];
+      const deepest = changes.find((change) => change.quantity === 'profileMaximumDepth_m');
+      const freeboard = changes.find((change) => change.quantity === 'profileMinimumFreeboard_m');
+      expect(deepest?.difference ?? 0, reachName).toBeGreaterThan(0);
+      expect(deepest?.direction).toBe('neutral');
+      expect(freeboard?.difference ?? 0, reachName).toBeLessThan(0);
+      expect(freeboard?.direction).toBe('worse');
+      expect(changes.some((change) => change.quantity === 'normalDepth_m')).toBe(false);
+    }
   });
 });
