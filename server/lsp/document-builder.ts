@@ -11,6 +11,16 @@
 import { DefaultDocumentBuilder, DocumentState, type LangiumDocument } from 'langium';
 
 export class RunnelDocumentBuilder extends DefaultDocumentBuilder {
+  /**
+   * Marks documents as changed ahead of their update, as Langium's update does first (document-update-handler.ts
+   * waits a moment before updating, to build a burst of edits once): requests for them wait for the new version.
+   * Call it only inside a workspace-lock write, which an update then follows.
+   */
+  markChanged(documents: readonly LangiumDocument[]): void {
+    this.currentState = DocumentState.Changed;
+    for (const document of documents) this.resetToState(document, DocumentState.Changed);
+  }
+
   protected override shouldRelink(document: LangiumDocument, changedUris: Set<string>): boolean {
     if (document.state >= DocumentState.Linked && document.state < DocumentState.IndexedReferences) return true;
     return super.shouldRelink(document, changedUris);

@@ -55,6 +55,7 @@ import { registerCustomRequests } from './custom-requests.js';
 import { addVersionedDiagnosticsHandler } from './diagnostics-publisher.js';
 import { DocumentAnalyses } from './document-analysis.js';
 import { RunnelDocumentBuilder } from './document-builder.js';
+import { RunnelDocumentUpdateHandler } from './document-update-handler.js';
 import { RunnelDocumentSymbolProvider, RunnelNodeKindProvider } from './document-symbols.js';
 import { containProvider, createServerLog, guardProcess, type ServerLog } from './error-containment.js';
 import { RunnelFormatter } from './formatter.js';
@@ -113,6 +114,7 @@ export const RunnelLspModule: Module<RunnelLspServices, PartialLangiumServices &
 export const RunnelSharedLspModule: Module<LangiumSharedServices, PartialLangiumSharedServices> = {
   lsp: {
     NodeKindProvider: () => new RunnelNodeKindProvider(),
+    DocumentUpdateHandler: (shared) => new RunnelDocumentUpdateHandler(shared),
   },
   workspace: {
     DocumentBuilder: (shared) => new RunnelDocumentBuilder(shared),

@@ -15,6 +15,7 @@ import '../../language/polyfills/object-group-by.cjs'; // Object.groupBy for che
  * - the analysis of the whole design from scratch (nothing remembered), as when a design is first opened;
  * - validation and edit to diagnostics: Langium's update with validation, as the server runs it;
  * - hover on a reach name (budget under 5 ms).
+ * `RUNNEL_BENCH_SIZES=500 npm run bench -- documents` measures only the sizes given.
  * Over the protocol (the bundled server over stdio): from sending `didChange` to receiving the diagnostics of that
  * version, the whole loop an editor sees.
  *
@@ -32,7 +33,7 @@ import { LspWorkspace } from '../server/lsp-workspace.js';
 import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
 import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
 
-const SIZES = [50, 500, 5_000] as const;
+const SIZES = (process.env.RUNNEL_BENCH_SIZES?.split(",").map(Number) ?? [50, 500, 5_000]) as readonly number[];
 const REACHES_PER_CHANNEL = 50;
 const TIMED_EDITS = 15;
 const WARM_UP_EDITS = 15;
