@@ -176,21 +176,50 @@ export function criteriaDefaultsKey(defaults: CriteriaDefaults): string {
 
 /**
  * The criteria defaults in force for one set of language services: set by the language server from the editor's
- * settings and by the command line from its options; read by validation and by every analysis of a document.
+ * settings and by the command line from its options; read by validation and by every analysis of a document. An
+ * editor may give a workspace folder settings of its own (a multi-root workspace): a document in such a folder
+ * takes that folder's defaults, any other document the window's.
  */
 export class CriteriaDefaultsSource {
   private defaults: CriteriaDefaults = NO_CRITERIA_DEFAULTS;
+  private byFolder: ReadonlyMap<string, CriteriaDefaults> = new Map();
 
+  /** The window's defaults (the command line's options): for documents outside every folder with its own. */
   get current(): CriteriaDefaults {
     return this.defaults;
   }
 
-  /** Puts `defaults` in force; true when they differ from the ones before. */
-  replace(defaults: CriteriaDefaults): boolean {
-    const changed = criteriaDefaultsKey(defaults) !== criteriaDefaultsKey(this.defaults);
+  /** The defaults for a document, by its URI: its workspace folder's, else the window's. */
+  forDocument(documentUri: string): CriteriaDefaults {
+    const folder = containingFolder(documentUri, this.byFolder.keys());
+    return folder === undefined ? this.defaults : (this.byFolder.get(folder) ?? this.defaults);
+  }
+
+  /** Puts the window's `defaults` and each folder's in force; true when anything differs from before. */
+  replace(defaults: CriteriaDefaults, byFolder: ReadonlyMap<string, CriteriaDefaults> = new Map()): boolean {
+    // A folder whose defaults are the window's changes nothing: it is not kept.
+    const windowKey = criteriaDefaultsKey(defaults);
+    const own = new Map([...byFolder].filter(([, value]) => criteriaDefaultsKey(value) !== windowKey));
+    const keyOf = (window: CriteriaDefaults, folders: ReadonlyMap<string, CriteriaDefaults>): string =>
+      JSON.stringify([criteriaDefaultsKey(window), [...folders].map(([folder, value]) => [folder, criteriaDefaultsKey(value)]).sort()]);
+    const changed = keyOf(defaults, own) !== keyOf(this.defaults, this.byFolder);
     this.defaults = defaults;
+    this.byFolder = own;
     return changed;
   }
+}
+
+/**
+ * The workspace folder a document lies in: the longest folder URI that is a prefix of its URI at a path boundary;
+ * undefined when none is.
+ */
+export function containingFolder(documentUri: string, folderUris: Iterable<string>): string | undefined {
+  let best: string | undefined;
+  for (const folder of folderUris) {
+    const prefix = folder.endsWith('/') ? folder : `${folder}/`;
+    if (documentUri.startsWith(prefix) && (best === undefined || folder.length > best.length)) best = folder;
+  }
+  return best;
 }
 
 /** Langium's diagnostic type, named without importing the LSP types package into language/. */

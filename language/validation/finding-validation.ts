@@ -50,6 +50,6 @@ function diagnosticPartsOf(finding: Finding): DiagnosticParts {
 /** The checks, judged with the criteria defaults in force when each document is validated. */
 export function createFindingChecks(criteriaDefaults: CriteriaDefaultsSource): ValidationChecks<RunnelAstType> {
   return {
-    RunnelFile: (file, accept) => designShouldPassItsChecks(file, accept, criteriaDefaults.current),
+    RunnelFile: (file, accept) => designShouldPassItsChecks(file, accept, criteriaDefaults.forDocument(AstUtils.getDocument(file).uri.toString())),
   };
 }

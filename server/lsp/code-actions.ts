@@ -157,7 +157,7 @@ export class RunnelCodeActionProvider implements CodeActionProvider {
         uri: document.uri.toString(),
         channel: result.channel,
         reach: result.name,
-        criteriaDefaults: this.analyses.criteriaDefaults,
+        criteriaDefaults: this.analyses.criteriaDefaultsFor(document.uri.toString()),
       });
       if (findings !== undefined && findings.length === 0) return { kind: 'sized', sizing, edit };
       remaining = findings ?? [];

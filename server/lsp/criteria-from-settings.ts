@@ -13,11 +13,11 @@
 import type { LangiumCoreServices, LangiumDocument } from 'langium';
 import type { LangiumSharedServices } from 'langium/lsp';
 import { MessageType, ShowMessageNotification, type Connection } from 'vscode-languageserver';
-import { readCriteriaSettings, type CriterionSettingNote } from '../../language/analysis/criteria-settings.js';
+import { readCriteriaSettings, type CriteriaDefaults, type CriterionSettingNote } from '../../language/analysis/criteria-settings.js';
 import type { RunnelAddedServices } from '../../language/runnel-module.js';
 import { SETTINGS_SECTION } from '../protocol.js';
 import { describeFault, type ServerLog } from './error-containment.js';
-import type { CriteriaSettingValues, RunnelSettings } from './runnel-settings.js';
+import type { CriteriaSettingValues, RunnelSettings, SettingsSnapshot } from './runnel-settings.js';
 
 export interface CriteriaFromSettingsOptions {
   readonly connection: Connection;
@@ -35,8 +35,9 @@ export function followCriteriaSettings(options: CriteriaFromSettingsOptions): vo
   const warned = new Set<string>();
   let lastApplied: string | undefined;
   let queue: Promise<void> = Promise.resolve();
-  const enqueue = (values: CriteriaSettingValues): void => {
-    const written = JSON.stringify(values);
+  const enqueue = (snapshot: SettingsSnapshot): void => {
+    const values: CriteriaValuesInForce = { window: snapshot.window.criteria, folders: new Map([...snapshot.folders].map(([folder, folderSettings]) => [folder, folderSettings.criteria])) };
+    const written = JSON.stringify([values.window, [...values.folders]]);
     queue = queue
       .then(async () => {
         if (written === lastApplied) return;
@@ -45,30 +46,42 @@ export function followCriteriaSettings(options: CriteriaFromSettingsOptions): vo
       })
       .catch((error: unknown) => log.error(`Runnel: applying the criteria settings failed. ${describeFault(error)}`));
   };
-  void settings.fetchedFromClient().then((current) => enqueue(current.criteria));
-  settings.onDidChange((current) => enqueue(current.criteria));
+  void settings.fetchedFromClient().then(enqueue);
+  settings.onDidChange(enqueue);
 }
 
-async function apply(options: CriteriaFromSettingsOptions, values: CriteriaSettingValues, warned: Set<string>): Promise<void> {
+/** The criteria settings as written: the window's, and each workspace folder's where the editor scopes them. */
+interface CriteriaValuesInForce {
+  readonly window: CriteriaSettingValues;
+  readonly folders: ReadonlyMap<string, CriteriaSettingValues>;
+}
+
+async function apply(options: CriteriaFromSettingsOptions, values: CriteriaValuesInForce, warned: Set<string>): Promise<void> {
   const { connection, shared, services, log } = options;
-  const reading = await readCriteriaSettings(services, values);
-  for (const problem of reading.problems) {
-    const text = refusedText(problem);
-    log.warn(text);
-    // Once per bad value: the log keeps every occurrence, the user is told once.
-    const key = `${problem.setting.name}\u0000${problem.written}`;
-    if (!warned.has(key)) {
-      warned.add(key);
-      // A notification (window/showMessage), not a request: nothing waits on the user's answer.
-      void connection.sendNotification(ShowMessageNotification.type, { type: MessageType.Warning, message: text });
+  const read = async (written: CriteriaSettingValues, where: string): Promise<CriteriaDefaults> => {
+    const reading = await readCriteriaSettings(services, written);
+    for (const problem of reading.problems) {
+      const text = refusedText(problem);
+      log.warn(text);
+      // Once per bad value: the log keeps every occurrence, the user is told once.
+      const key = `${problem.setting.name}\u0000${problem.written}`;
+      if (!warned.has(key)) {
+        warned.add(key);
+        // A notification (window/showMessage), not a request: nothing waits on the user's answer.
+        void connection.sendNotification(ShowMessageNotification.type, { type: MessageType.Warning, message: text });
+      }
     }
-  }
-  for (const warning of reading.warnings) log.warn(`Runnel: setting ${settingName(warning)} = "${warning.written}" applies, with a caution: ${warning.message}`);
-  if (!services.analysis.CriteriaDefaults.replace(reading.defaults)) return;
-  const applied = Object.entries(values)
-    .filter(([name, value]) => value !== '' && !reading.problems.some((problem) => problem.setting.name === name))
-    .map(([name, value]) => `${SETTINGS_SECTION}.criteria.${name} = "${value}"`);
-  log.info(`Runnel: criteria defaults from settings: ${applied.length === 0 ? 'none (built-in defaults)' : applied.join(', ')}; a value written in a design file wins.`);
+    for (const warning of reading.warnings) log.warn(`Runnel: setting ${settingName(warning)} = "${warning.written}" applies, with a caution: ${warning.message}`);
+    const applied = Object.entries(written)
+      .filter(([name, value]) => value !== '' && !reading.problems.some((problem) => problem.setting.name === name))
+      .map(([name, value]) => `${SETTINGS_SECTION}.criteria.${name} = "${value}"`);
+    log.info(`Runnel: criteria defaults from settings${where}: ${applied.length === 0 ? 'none (built-in defaults)' : applied.join(', ')}; a value written in a design file wins.`);
+    return reading.defaults;
+  };
+  const windowDefaults = await read(values.window, '');
+  const folderDefaults = new Map<string, CriteriaDefaults>();
+  for (const [folder, written] of values.folders) folderDefaults.set(folder, await read(written, ` for the folder ${folder}`));
+  if (!services.analysis.CriteriaDefaults.replace(windowDefaults, folderDefaults)) return;
   await revalidateOpenDesigns(shared);
   options.onApplied();
 }
@@ -76,6 +89,8 @@ async function apply(options: CriteriaFromSettingsOptions, values: CriteriaSetti
 /** Validates every open document again; the diagnostics publisher and the report panels see the new results. */
 async function revalidateOpenDesigns(shared: LangiumSharedServices): Promise<void> {
   const textDocuments = shared.workspace.TextDocuments;
+  // As Langium's own updates: taking the lock before the workspace is first built would cancel that build.
+  await shared.workspace.WorkspaceManager.ready;
   await shared.workspace.WorkspaceLock.write(async (token) => {
     // Taking the lock cancels a build in progress; its open documents are built here, through validation, too.
     const open: LangiumDocument[] = shared.workspace.LangiumDocuments.all.filter((document) => textDocuments?.get(document.uri.toString()) !== undefined).toArray();

@@ -52,7 +52,7 @@ export function registerCustomRequests(connection: Connection, shared: LangiumSh
   /** The analysis as the report shows it: in the units the setting asks for. */
   const reportAnalysis = async (document: LangiumDocument): Promise<DesignAnalysis> => {
     const analysis = analyses.of(document);
-    const system = displaySystemFor(analysis, await settings.current());
+    const system = displaySystemFor(analysis, await settings.current(document.uri.toString()));
     return system === analysis.displayUnits ? analysis : { ...analysis, displayUnits: system };
   };
 
@@ -87,7 +87,7 @@ export function registerCustomRequests(connection: Connection, shared: LangiumSh
       { markdown: null, problem: 'Runnel could not compare this file (an internal error; see the Runnel output).' },
       async () => {
         await builtDocument(params.uri, token);
-        return compareWithLastCommit(params.uri, documents, analyses.criteriaDefaults);
+        return compareWithLastCommit(params.uri, documents, analyses.criteriaDefaultsFor(params.uri));
       },
     ),
   );
@@ -101,9 +101,10 @@ export function registerCustomRequests(connection: Connection, shared: LangiumSh
 
   // Changed display units change what the report shows: tell the report panels of open documents.
   let lastUnits: string | undefined;
-  settings.onDidChange((current) => {
-    if (lastUnits !== undefined && lastUnits === current.displayUnits) return;
-    lastUnits = current.displayUnits;
+  settings.onDidChange((snapshot) => {
+    const units = JSON.stringify([snapshot.window.displayUnits, [...snapshot.folders].map(([folder, folderSettings]) => [folder, folderSettings.displayUnits])]);
+    if (lastUnits !== undefined && lastUnits === units) return;
+    lastUnits = units;
     for (const textDocument of textDocuments.all()) {
       void connection.sendNotification(ANALYSIS_CHANGED_NOTIFICATION, { uri: textDocument.uri, version: textDocument.version } satisfies AnalysisChangedParams);
     }

@@ -35,14 +35,14 @@ export class DocumentAnalyses {
     });
   }
 
-  /** The criteria defaults from settings that the server's analyses use now. */
-  get criteriaDefaults(): CriteriaDefaults {
-    return this.criteria.current;
+  /** The criteria defaults from settings that the server's analyses of a document (by URI) use now. */
+  criteriaDefaultsFor(documentUri: string): CriteriaDefaults {
+    return this.criteria.forDocument(documentUri);
   }
 
   /** The analysis of the document as it stands (computed if needed, never twice for one linked version). */
   of(document: LangiumDocument): DesignAnalysis {
-    const criteriaDefaults = this.criteria.current;
+    const criteriaDefaults = this.criteria.forDocument(document.uri.toString());
     // Before linking (mid-edit, or relinking after a linings file changed) nothing is remembered.
     if (document.state < DocumentState.Linked) return analyzeDocument(document, criteriaDefaults);
     const criteriaKey = criteriaDefaultsKey(criteriaDefaults);

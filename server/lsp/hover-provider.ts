@@ -63,7 +63,7 @@ export class RunnelHoverProvider implements HoverProvider {
     const offset = document.textDocument.offsetAt(params.position);
     const leaf = CstUtils.findLeafNodeAtOffset(rootCst, offset);
     if (leaf === undefined || leaf.hidden) return undefined;
-    const settings = await this.settings.current();
+    const settings = await this.settings.current(document.uri.toString());
     const markdown = this.contentFor(document, leaf.astNode, offset, settings.displayUnits === 'auto' ? undefined : settings.displayUnits);
     if (markdown === undefined) return undefined;
     return { contents: { kind: 'markdown', value: markdown }, range: leaf.range };

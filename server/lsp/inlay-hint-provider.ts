@@ -24,7 +24,7 @@ export class RunnelInlayHintProvider implements InlayHintProvider {
   ) {}
 
   async getInlayHints(document: LangiumDocument, params: InlayHintParams, cancelToken = CancellationToken.None): Promise<InlayHint[]> {
-    const settings = await this.settings.current();
+    const settings = await this.settings.current(document.uri.toString());
     const show = settings.inlayHints;
     if (!show.normalDepth && !show.criticalDepth && !show.velocity && !show.froudeNumber && !show.maximumProfileDepth) return [];
     const root = document.parseResult.value;

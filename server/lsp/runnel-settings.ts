@@ -13,7 +13,7 @@
  */
 import type { LangiumSharedServices } from 'langium/lsp';
 import { Emitter, type Event } from 'vscode-languageserver';
-import { CRITERION_SETTINGS, type CriterionSettingName } from '../../language/analysis/criteria-settings.js';
+import { containingFolder, CRITERION_SETTINGS, type CriterionSettingName } from '../../language/analysis/criteria-settings.js';
 import { SETTINGS_SECTION } from '../protocol.js';
 
 /** The settings section, typed once in server/protocol.ts for the server and the extension. */
@@ -82,19 +82,47 @@ export function parseSettings(section: unknown): RunnelEditorSettings {
   };
 }
 
-/** The current settings, kept up to date from the client's configuration notifications. */
+/** The window's settings and, where the editor scopes settings by workspace folder, each folder's. */
+export interface SettingsSnapshot {
+  readonly window: RunnelEditorSettings;
+  /** By folder URI, for the workspace folders the editor opened (empty when it does not scope settings). */
+  readonly folders: ReadonlyMap<string, RunnelEditorSettings>;
+}
+
+/**
+ * The current settings, kept up to date from the client's configuration notifications. VS Code scopes these
+ * settings by resource: in a workspace of several folders each folder may set its own, and a document takes its
+ * folder's. The window's settings (asked without a scope) serve documents outside every folder, and clients that
+ * cannot scope.
+ */
 export class RunnelSettings {
   private latest: RunnelEditorSettings = DEFAULT_SETTINGS;
+  private folders: ReadonlyMap<string, RunnelEditorSettings> = new Map();
+  private folderUris: readonly string[] = [];
   private readonly ready: Promise<void>;
   private readonly fetched: Promise<void>;
-  private readonly changed = new Emitter<RunnelEditorSettings>();
+  private readonly changed = new Emitter<SettingsSnapshot>();
 
   constructor(shared: LangiumSharedServices) {
     const configuration = shared.workspace.ConfigurationProvider;
+    const connection = shared.lsp.Connection;
+    shared.lsp.LanguageServer.onInitialize((params) => {
+      if (params.capabilities.workspace?.configuration !== true) return;
+      const folders = params.workspaceFolders?.map((folder) => folder.uri) ?? (params.rootUri === null || params.rootUri === undefined ? [] : [params.rootUri]);
+      this.folderUris = folders;
+    });
+    /** Each folder's section, asked with the folder as scope; a failed answer leaves that folder to the window's. */
+    const fetchFolders = async (): Promise<void> => {
+      if (connection === undefined || this.folderUris.length === 0) return;
+      const answers: unknown[] = await connection.workspace.getConfiguration(this.folderUris.map((scopeUri) => ({ scopeUri, section: SETTINGS_SECTION })));
+      this.folders = new Map(this.folderUris.map((folder, index) => [folder, parseSettings(answers[index])]));
+    };
     configuration.onConfigurationSectionUpdate((update) => {
       if (update.section !== SETTINGS_SECTION) return;
       this.latest = parseSettings(update.configuration);
-      this.changed.fire(this.latest);
+      void fetchFolders()
+        .catch(() => undefined)
+        .then(() => this.changed.fire(this.snapshot()));
     });
     // Langium fetches the section once after `initialized`; read it from there. A client that never answers must
     // not stall hints and hover, hence the time limit.
@@ -104,25 +132,35 @@ export class RunnelSettings {
         const keys = ['inlayHints', 'displayUnits', 'criteria', ...CRITERION_SETTINGS.map((setting) => `criteria.${setting.name}`)];
         for (const key of keys) section[key] = await configuration.getConfiguration(SETTINGS_SECTION, key);
         this.latest = parseSettings(section);
+        await fetchFolders();
       })
       .catch(() => undefined);
     this.ready = Promise.race([this.fetched, new Promise<void>((resolve) => setTimeout(resolve, FIRST_CONFIGURATION_WAIT_MS).unref())]);
   }
 
   /** The settings as the client first sent them, however long that takes (the defaults if the fetch failed). */
-  async fetchedFromClient(): Promise<RunnelEditorSettings> {
+  async fetchedFromClient(): Promise<SettingsSnapshot> {
     await this.fetched;
-    return this.latest;
+    return this.snapshot();
   }
 
-  /** The settings in force (the defaults until the client has answered). */
-  async current(): Promise<RunnelEditorSettings> {
+  /**
+   * The settings in force for a document (its workspace folder's, else the window's), or the window's when no
+   * document is named; the defaults until the client has answered.
+   */
+  async current(documentUri?: string): Promise<RunnelEditorSettings> {
     await this.ready;
-    return this.latest;
+    const folder = documentUri === undefined ? undefined : containingFolder(documentUri, this.folders.keys());
+    return folder === undefined ? this.latest : (this.folders.get(folder) ?? this.latest);
   }
 
-  /** Fires when the client reports changed settings. */
-  get onDidChange(): Event<RunnelEditorSettings> {
+  /** The window's settings and each folder's, as they stand. */
+  snapshot(): SettingsSnapshot {
+    return { window: this.latest, folders: this.folders };
+  }
+
+  /** Fires when the client reports changed settings (after each folder's have been read again). */
+  get onDidChange(): Event<SettingsSnapshot> {
     return this.changed.event;
   }
 }

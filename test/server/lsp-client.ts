@@ -17,8 +17,15 @@ import { serverBundle } from './server-bundle.js';
 export interface ClientOptions {
   /** Folder the server treats as the workspace (its `.runnel` files are indexed). */
   readonly workspaceFolder?: string;
+  /** Several workspace folders (a multi-root workspace), instead of `workspaceFolder`. */
+  readonly workspaceFolders?: readonly string[];
   /** The `runnel` settings section the client answers `workspace/configuration` with. */
   readonly settings?: Record<string, unknown>;
+  /**
+   * Settings a workspace folder (by path) sets for itself: a request scoped to that folder is answered with the
+   * window's section overridden by these, as VS Code merges folder settings over the others.
+   */
+  readonly folderSettings?: Readonly<Record<string, Record<string, unknown>>>;
   readonly capabilities?: ClientCapabilities;
 }
 
@@ -36,6 +43,7 @@ export class TestLanguageClient {
   private waiters: Waiter[] = [];
   private exitCode: number | null = null;
   settings: Record<string, unknown>;
+  folderSettings: Readonly<Record<string, Record<string, unknown>>>;
 
   private constructor(
     readonly process: ChildProcess,
@@ -44,6 +52,7 @@ export class TestLanguageClient {
     options: ClientOptions,
   ) {
     this.settings = options.settings ?? {};
+    this.folderSettings = Object.fromEntries(Object.entries(options.folderSettings ?? {}).map(([folder, settings]) => [pathToUri(folder), settings]));
     process.on('exit', (code) => {
       this.exitCode = code ?? -1;
     });
@@ -65,9 +74,13 @@ export class TestLanguageClient {
     connection.onUnhandledNotification((message) => {
       this.notifications.push({ method: message.method, params: message.params });
     });
-    connection.onRequest('workspace/configuration', (params: { items: { section?: string }[] }) => {
+    connection.onRequest('workspace/configuration', (params: { items: { section?: string; scopeUri?: string }[] }) => {
       this.serverRequests.push({ method: 'workspace/configuration', params });
-      return params.items.map((item) => (item.section === 'runnel' ? this.settings : null));
+      return params.items.map((item) => {
+        if (item.section !== 'runnel') return null;
+        const own = item.scopeUri === undefined ? undefined : this.folderSettings[item.scopeUri];
+        return own === undefined ? this.settings : mergeSettings(this.settings, own);
+      });
     });
     connection.onRequest('client/registerCapability', (params: unknown) => {
       this.serverRequests.push({ method: 'client/registerCapability', params });
@@ -102,10 +115,11 @@ export class TestLanguageClient {
         rename: { prepareSupport: true },
       },
     };
+    const folders = options.workspaceFolders ?? (folder === undefined ? [] : [folder]);
     const initializeResult = (await connection.sendRequest('initialize', {
       processId: process.pid,
-      rootUri: folder === undefined ? null : pathToUri(folder),
-      workspaceFolders: folder === undefined ? null : [{ uri: pathToUri(folder), name: 'workspace' }],
+      rootUri: folders[0] === undefined ? null : pathToUri(folders[0]),
+      workspaceFolders: folders.length === 0 ? null : folders.map((path, index) => ({ uri: pathToUri(path), name: `folder ${index + 1}` })),
       capabilities,
     })) as InitializeResult;
     await connection.sendNotification('initialized', {});
@@ -190,4 +204,17 @@ export function pathToUri(path: string): string {
 
 export function delay(ms: number): Promise<void> {
   return new Promise((resolve) => setTimeout(resolve, ms));
+}
+
+/** A settings section with another laid over it, nested objects merged key by key. */
+function mergeSettings(base: Record<string, unknown>, over: Record<string, unknown>): Record<string, unknown> {
+  const merged: Record<string, unknown> = { ...base };
+  for (const [key, value] of Object.entries(over)) {
+    const below = merged[key];
+    merged[key] =
+      typeof value === 'object' && value !== null && !Array.isArray(value) && typeof below === 'object' && below !== null && !Array.isArray(below)
+        ? mergeSettings(below as Record<string, unknown>, value as Record<string, unknown>)
+        : value;
+  }
+  return merged;
 }
