@@ -3,8 +3,9 @@
  * others have the same text at the same place, link to the same sections, linings and flows, and sit under the same
  * flow tables, criteria and display units, so their results are the same objects as before. Each channel's result
  * is remembered under a key made of everything it is computed from:
- * - the design context: the display units, and the text and position of every flow table and design criteria block
- *   (flows apply at the head of every channel; a finding points at the flow that sets its discharge);
+ * - the design context: the display units, the criteria defaults from settings, and the text and position of every
+ *   flow table and design criteria block (flows apply at the head of every channel; a finding points at the flow
+ *   that sets its discharge);
  * - the channel's own text and the position of its first token: together they fix every range inside it;
  * - every node a reference inside the channel resolves to (sections, linings, flows, possibly in another file):
  *   its document, position and text, or "unresolved".
@@ -54,9 +55,12 @@ export function forgetChannelMemos(): void {
   memosByDocument = new WeakMap();
 }
 
-/** The part of every channel's key that the design as a whole contributes (see the module comment). */
-export function designContextKey(file: RunnelFile, displayUnits: string, extra: string): string {
-  const parts = [displayUnits, extra];
+/**
+ * The part of every channel's key that the design as a whole contributes (see the module comment); `criteriaKey` is
+ * the canonical text of the criteria defaults from settings (criteria-settings.ts).
+ */
+export function designContextKey(file: RunnelFile, displayUnits: string, criteriaKey: string): string {
+  const parts = [displayUnits, criteriaKey];
   for (const member of file.members ?? []) {
     if (isFlowTable(member)) parts.push(placedText(member));
   }
