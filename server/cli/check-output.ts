@@ -136,6 +136,15 @@ export const SARIF_SCHEMA_URI = 'https://json.schemastore.org/sarif-2.1.0.json';
 /** The base every result's file path is relative to (the repository root, or the current folder). */
 const SOURCE_ROOT_ID = 'SRCROOT';
 
+/**
+ * A rule's title for code-scanning views, in words from its stable code: `freeboard-below-required` becomes
+ * "Freeboard below required" (the code stays the one home of the rule's name).
+ */
+export function ruleTitle(code: string): string {
+  const words = code.split('-').join(' ');
+  return words.length === 0 ? code : `${words.charAt(0).toUpperCase()}${words.slice(1)}`;
+}
+
 function encodePath(path: string): string {
   return path.split('/').map(encodeURIComponent).join('/');
 }
@@ -181,7 +190,7 @@ export function checkSarifLog(files: readonly CheckedFile[], caution: string, to
             name: tool.name,
             semanticVersion: tool.version,
             version: tool.version,
-            rules: ruleIds.map((id) => ({ id, properties: { category: sources.get(id) ?? 'validation' } })),
+            rules: ruleIds.map((id) => ({ id, shortDescription: { text: ruleTitle(id) }, properties: { category: sources.get(id) ?? 'validation' } })),
           },
         },
         originalUriBaseIds: { [SOURCE_ROOT_ID]: { uri: rootUri.endsWith('/') ? rootUri : `${rootUri}/` } },

@@ -159,6 +159,11 @@ describe('runnel check formats (in-process)', () => {
     // The validator rejects what it should: a wrong version.
     expect(validate({ ...log, version: '2.0.0' })).toBe(false);
 
+    // Every rule the results use is described, in words from its code, for code-scanning views.
+    const rules = (log as unknown as { runs: { tool: { driver: { rules: { id: string; shortDescription?: { text: string } }[] } } }[] }).runs[0]?.tool.driver.rules ?? [];
+    expect(rules.find((rule) => rule.id === 'unit-unknown')?.shortDescription?.text).toBe('Unit unknown');
+    expect(rules.every((rule) => (rule.shortDescription?.text.length ?? 0) > 0)).toBe(true);
+
     const overtopping = log.runs[0]?.results.find((result) => result.ruleId === 'overtopping');
     expect(overtopping?.level).toBe('error');
     expect(overtopping?.locations[0]?.physicalLocation.artifactLocation.uri).toMatch(/narrow\.runnel$/);
