@@ -111,11 +111,12 @@ export class RunnelSettings {
       const folders = params.workspaceFolders?.map((folder) => folder.uri) ?? (params.rootUri === null || params.rootUri === undefined ? [] : [params.rootUri]);
       this.folderUris = folders;
     });
-    /** Each folder's section, asked with the folder as scope; a failed answer leaves that folder to the window's. */
+    /** Each folder's section, asked with the folder as scope; a failed or empty answer leaves it to the window's. */
     const fetchFolders = async (): Promise<void> => {
       if (connection === undefined || this.folderUris.length === 0) return;
       const answers: unknown[] = await connection.workspace.getConfiguration(this.folderUris.map((scopeUri) => ({ scopeUri, section: SETTINGS_SECTION })));
-      this.folders = new Map(this.folderUris.map((folder, index) => [folder, parseSettings(answers[index])]));
+      // A folder the client answers nothing for (null, as for an unknown section) keeps the window's settings.
+      this.folders = new Map(this.folderUris.flatMap((folder, index) => (isRecord(answers[index]) ? [[folder, parseSettings(answers[index])] as const] : [])));
     };
     configuration.onConfigurationSectionUpdate((update) => {
       if (update.section !== SETTINGS_SECTION) return;
