@@ -10,7 +10,7 @@
  * COALESCE_MS; a change inside that window cancels the wait and carries the documents changed so far into its own
  * update. A lone edit is built COALESCE_MS later than it would have been; a document just opened is built at once.
  */
-import { DocumentState, URI, type LangiumDocuments } from 'langium';
+import { URI, type LangiumDocuments } from 'langium';
 import { DefaultDocumentUpdateHandler, type LangiumSharedServices } from 'langium/lsp';
 import type { CancellationToken, TextDocumentChangeEvent } from 'vscode-languageserver';
 import type { TextDocument } from 'vscode-languageserver-textdocument';
@@ -21,12 +21,17 @@ export const COALESCE_MS = 15;
 
 export class RunnelDocumentUpdateHandler extends DefaultDocumentUpdateHandler {
   private readonly documents: LangiumDocuments;
+  private readonly builder: RunnelDocumentBuilder;
   /** Documents changed since the last update started. */
   private readonly pending = new Map<string, URI>();
 
   constructor(services: LangiumSharedServices) {
     super(services);
     this.documents = services.workspace.LangiumDocuments;
+    // Marking documents changed ahead of their update needs the builder's own state (RunnelSharedLspModule).
+    const builder = services.workspace.DocumentBuilder;
+    if (!(builder instanceof RunnelDocumentBuilder)) throw new Error('internal: the burst-coalescing update handler needs RunnelDocumentBuilder');
+    this.builder = builder;
   }
 
   override didChangeContent(change: TextDocumentChangeEvent<TextDocument>): void {
@@ -39,8 +44,7 @@ export class RunnelDocumentUpdateHandler extends DefaultDocumentUpdateHandler {
           // document opened just now is not known yet; Langium's update creates it, so it is not kept waiting.
           const known = [...this.pending.values()].map((pendingUri) => this.documents.getDocument(pendingUri));
           const allKnown = known.every((document) => document !== undefined);
-          if (this.documentBuilder instanceof RunnelDocumentBuilder) this.documentBuilder.markChanged(known.filter((document) => document !== undefined));
-          else for (const document of known) if (document !== undefined) this.documentBuilder.resetToState(document, DocumentState.Changed);
+          this.builder.markChanged(known.filter((document) => document !== undefined));
           if (allKnown) {
             // A newer change cancels the wait (its update includes these documents); queued changes find it cancelled.
             await quietFor(COALESCE_MS, token);
@@ -48,7 +52,7 @@ export class RunnelDocumentUpdateHandler extends DefaultDocumentUpdateHandler {
           }
           const changed = [...this.pending.values()];
           this.pending.clear();
-          await this.documentBuilder.update(changed, [], token);
+          await this.builder.update(changed, [], token);
         }),
       )
       .catch((error: unknown) => {
