@@ -90,6 +90,18 @@ export function runSubcriticalPass(
         return { converged: false, reason: 'did-not-converge', message: `The energy balance at the junction above station ${junctionStationM.toFixed(2)} m did not converge.`, reachIndex: index, stationM: junctionStationM };
       }
     }
+    if (below === undefined && startDepthM >= reach.flow.highestFreeSurfaceDepthM) {
+      // Water at the outlet at or above the conduit's crown submerges it: the flow there is under pressure, which a
+      // free-surface profile does not model, whatever the flow does upstream (a jump would fill the conduit).
+      const crownM = reach.flow.section.fullDepthM ?? 0;
+      return {
+        converged: false,
+        reason: 'conduit-surcharged',
+        message: `The water at the outlet (${fixed(startDepthM)} m deep) stands at or above the crown of the conduit of reach "${reach.input.name}" (elevation ${(reach.downstreamInvertElevationM + crownM).toFixed(3)} m): the outlet is submerged and the conduit flows under pressure there, which the free-surface profile does not model.`,
+        reachIndex: index,
+        stationM: reach.startStationM + reach.lengthM,
+      };
+    }
     const march = marchAlongReach(reach.flow, reach.lengthM, startDepthM, 0, 'subcritical', reach.march, budget);
     if (march.end === 'above-crown') {
       const stationsM = march.stationsM.reverse();

@@ -293,6 +293,29 @@ describe('conduits', () => {
     expect(profile.jumps[0]?.reachIndex).toBe(1);
     expect(profile.points.every((point) => point.depthM < 0.9)).toBe(true);
   });
+
+  // A random channel found this: a short steep pipe whose supercritical flow met water standing just above its crown
+  // at the outlet was reported as a jump onto a depth deeper than the pipe, gaining head. A submerged outlet means
+  // pressure flow there, which the free-surface profile does not model (common practice: such an outlet is checked
+  // as a pressure or outlet-controlled conduit instead).
+  const shortSteepPipe = (outletLevelM: number): ChannelProfileInput => ({
+    reaches: [{ name: 'pipe', section: circleSection({ diameterM: 1.5 }), manningN: 0.011, bedSlope: 0.01, lengthM: 5, downstreamInvertElevationM: 0 }],
+    dischargeM3s: 0.05,
+    outlet: { kind: 'water-level', elevationM: outletLevelM },
+    inlet: { kind: 'depth', depthM: 0.05 },
+  });
+  it('water at the outlet above a pipe\'s crown: conduit-surcharged at the outlet, never a jump onto a depth deeper than the pipe', () => {
+    const result = computeChannelProfile(shortSteepPipe(1.505));
+    expect(result.converged).toBe(false);
+    if (result.converged) return;
+    expect(result.reason).toBe('conduit-surcharged');
+    expect(result.stationM).toBe(5);
+    expect(result.message).toMatch(/outlet is submerged/);
+  });
+  it('water at the outlet below the crown: a free-surface profile, every depth inside the pipe', () => {
+    const profile = converged(computeChannelProfile(shortSteepPipe(1.2)));
+    expect(profile.points.every((point) => point.depthM < 1.5)).toBe(true);
+  });
 });
 
 describe('bad input never throws', () => {

@@ -71,7 +71,14 @@ describe('energy balance at every step (random channels)', () => {
           return ((q * (input.reaches[reachIndex] as ProfileReachInput).manningN) / (area * (area / section.wettedPerimeterM(depthM)) ** (2 / 3))) ** 2;
         };
         expect(result.steps.length).toBe(result.points.length - 1);
-        let worstResidualM = 0;
+        // Each step is solved to energyToleranceM in its own distances; the residual recomputed here from the reported
+        // channel stations and elevations also carries their rounding (profile-types.ts, energyResidualM): a few units
+        // in the last place of the heads, and of the stations times the friction slope. The latter matters only for
+        // extreme flow, e.g. 0.9 mm deep at 34 m/s below a 58 m drop (friction slope in the thousands), which a random
+        // channel here can produce (seed 426281157 gave a residual 1.04e-9 m against a 1e-9 m tolerance).
+        const unitInLastPlace = (value: number): number => Math.abs(value) * Number.EPSILON;
+        let worstExcessM = 0;
+        let largestAllowanceM = 0;
         for (const step of result.steps) {
           const a = result.points[step.upstreamPointIndex];
           const b = result.points[step.downstreamPointIndex];
@@ -79,18 +86,26 @@ describe('energy balance at every step (random channels)', () => {
           expect(b.stationM).toBeGreaterThanOrEqual(a.stationM - 1e-9);
           const headDifferenceM = head(a.reachIndex, a.invertElevationM, a.depthM) - head(b.reachIndex, b.invertElevationM, b.depthM);
           let residualM: number | undefined;
+          let frictionSlope = 0;
           if (step.kind === 'gradually-varied') {
-            residualM = headDifferenceM - 0.5 * (friction(a.reachIndex, a.depthM) + friction(a.reachIndex, b.depthM)) * (b.stationM - a.stationM);
+            frictionSlope = 0.5 * (friction(a.reachIndex, a.depthM) + friction(a.reachIndex, b.depthM));
+            residualM = headDifferenceM - frictionSlope * (b.stationM - a.stationM);
           } else if (step.kind === 'junction') {
             residualM = headDifferenceM - k * Math.abs(velocityHead(a.reachIndex, a.depthM) - velocityHead(b.reachIndex, b.depthM));
           } else {
             // Dissipating steps (jumps, the brink of a drop) lose head; none may gain it.
             expect(headDifferenceM).toBeGreaterThanOrEqual(-1e-9);
           }
-          if (residualM !== undefined) worstResidualM = Math.max(worstResidualM, Math.abs(residualM));
+          if (residualM !== undefined) {
+            const headsM = Math.max(head(a.reachIndex, a.invertElevationM, a.depthM), head(b.reachIndex, b.invertElevationM, b.depthM));
+            const roundingM = 8 * unitInLastPlace(headsM) + 4 * frictionSlope * unitInLastPlace(Math.max(Math.abs(a.stationM), Math.abs(b.stationM)));
+            const allowanceM = result.energyToleranceM * 1.01 + 1e-12 + roundingM;
+            largestAllowanceM = Math.max(largestAllowanceM, allowanceM);
+            worstExcessM = Math.max(worstExcessM, Math.abs(residualM) - allowanceM);
+          }
         }
-        expect(worstResidualM).toBeLessThanOrEqual(result.energyToleranceM * 1.01 + 1e-12);
-        expect(result.maximumEnergyResidualM).toBeLessThanOrEqual(result.energyToleranceM * 1.01 + 1e-12);
+        expect(worstExcessM).toBeLessThanOrEqual(0);
+        expect(result.maximumEnergyResidualM).toBeLessThanOrEqual(Math.max(largestAllowanceM, result.energyToleranceM * 1.01 + 1e-12));
         for (const point of result.points) {
           for (const value of [point.depthM, point.velocityMs, point.froudeNumber, point.waterSurfaceElevationM, point.energyElevationM]) expect(Number.isFinite(value)).toBe(true);
           expect(point.depthM).toBeGreaterThan(0);
