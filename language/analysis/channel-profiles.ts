@@ -20,6 +20,7 @@ import {
   type OutletControl,
   type ProfileNote,
   type ProfilePoint,
+  type ProfilePointColumns,
   type ProfileReachInput,
   type ReachProfileSummary,
   type SectionGeometry,
@@ -274,7 +275,7 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
   const runs = splitIntoRuns(plan, engineReaches, flowName, fromReachIndex);
   const channelOutlet = engineOutlet(outlet);
   const outletOf = (runIndex: number): OutletControl => {
-    const head = runs[runIndex + 1]?.result?.points[0];
+    const head = runs[runIndex + 1]?.result?.pointTable.point(0);
     if (runIndex === runs.length - 1 || head === undefined) return channelOutlet;
     return { kind: 'water-level', elevationM: head.waterSurfaceElevationM };
   };
@@ -303,7 +304,7 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
   // From the head down: supercritical flow leaving a run enters the next one.
   for (let index = 1; index < runs.length; index++) {
     const above = (runs[index - 1] as Run).result as ChannelProfile;
-    const exit = above.points[above.points.length - 1] as ProfilePoint;
+    const exit = above.pointTable.point(above.pointTable.length - 1);
     if (exit.regime !== 'supercritical') continue;
     const run = runs[index] as Run;
     const result = computeChannelProfile({
@@ -367,7 +368,8 @@ const INLET_NOTES: ReadonlySet<ProfileNote['code']> = new Set(['inlet-depth-not-
 
 function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowProfile['datum'], flowName: string): ComputedFlowProfile {
   const reachName = (index: number): string => plan.reaches[index]?.name ?? '';
-  const points: ProfilePointResult[] = [];
+  // The model's points are built when first read (the report and exports read them; checks need only the regimes).
+  const pointRuns: { readonly table: ProfilePointColumns; readonly offsetM: number; readonly reachOffset: number }[] = [];
   const regimes: ProfilePoint['regime'][] = [];
   const pointReaches: number[] = [];
   const segments: ProfileSegmentResult[] = [];
@@ -384,18 +386,11 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     const next = runs[runIndex + 1];
     // The origin of supercritical flow carried in from the run above: where it began there.
     const carriedOriginIndex = run.carriedIn ? supercriticalOriginReachIndex(regimes, pointReaches, regimes.length - 1) : undefined;
-    for (const point of result.points) {
-      points.push({
-        station_m: point.stationM + offsetM,
-        reach: reachName(point.reachIndex + reachOffset),
-        depth_m: point.depthM,
-        invert_m: point.invertElevationM,
-        waterSurface_m: point.waterSurfaceElevationM,
-        velocity_mps: point.velocityMs,
-        froudeNumber: point.froudeNumber,
-      });
-      regimes.push(point.regime);
-      pointReaches.push(point.reachIndex + reachOffset);
+    const table = result.pointTable;
+    pointRuns.push({ table, offsetM, reachOffset });
+    for (let index = 0; index < table.length; index++) {
+      regimes.push(table.regimeAt(index));
+      pointReaches.push(table.reachIndexAt(index) + reachOffset);
     }
     for (const segment of result.segments) {
       segments.push({
@@ -414,8 +409,8 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
       if (jump.placement === 'beyond-outlet' && !isLast) {
         if (carriedOn) continue;
         // The water below the change of discharge holds it at the junction: its depths and loss are those there.
-        const exit = result.points[result.points.length - 1] as ProfilePoint;
-        const below = next?.result?.points[0];
+        const exit = result.pointTable.point(result.pointTable.length - 1);
+        const below = next?.result?.pointTable.point(0);
         if (below === undefined) continue;
         const energyLossM = exit.energyElevationM - below.energyElevationM;
         jump = {
@@ -506,8 +501,10 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
 
   // Supercritical flow leaving the channel with no jump, although it crossed a reach that could have held one.
   let sweptOutExit: SweptOutExit | null = null;
-  const lastIndex = points.length - 1;
-  const lastPoint = points[lastIndex];
+  const lastIndex = regimes.length - 1;
+  const lastRun = pointRuns.findLast((run) => run.table.length > 0);
+  const lastPoint =
+    lastRun === undefined ? undefined : modelPoint(lastRun.table.point(lastRun.table.length - 1), lastRun.offsetM, (reachIndex) => reachName(reachIndex + lastRun.reachOffset));
   const endsWithJump = jumps.some((jump) => jump.result.placement === 'beyond-outlet');
   if (lastPoint !== undefined && regimes[lastIndex] === 'supercritical' && !endsWithJump) {
     const originReachIndex = supercriticalOriginReachIndex(regimes, pointReaches, lastIndex) ?? (pointReaches[lastIndex] as number);
@@ -524,13 +521,20 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     }
   }
 
+  let points: readonly ProfilePointResult[] | undefined;
   return {
     model: {
       flow: flowName,
       computed: true,
       failure: null,
       datum,
-      points,
+      get points() {
+        return (points ??= pointRuns.flatMap(({ table, offsetM, reachOffset }) => {
+          const runPoints = new Array<ProfilePointResult>(table.length);
+          for (let index = 0; index < table.length; index++) runPoints[index] = modelPoint(table.point(index), offsetM, (reachIndex) => reachName(reachIndex + reachOffset));
+          return runPoints;
+        }));
+      },
       segments,
       jumps: jumps.map((jump) => jump.result),
       notes,
@@ -541,6 +545,19 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     jumps,
     sweptOutExit,
     failure: null,
+  };
+}
+
+/** An engine point in the model's words and the channel's stations (offsetM: where the point's run starts). */
+function modelPoint(point: ProfilePoint, offsetM: number, reachName: (index: number) => string): ProfilePointResult {
+  return {
+    station_m: point.stationM + offsetM,
+    reach: reachName(point.reachIndex),
+    depth_m: point.depthM,
+    invert_m: point.invertElevationM,
+    waterSurface_m: point.waterSurfaceElevationM,
+    velocity_mps: point.velocityMs,
+    froudeNumber: point.froudeNumber,
   };
 }
 

@@ -22,7 +22,7 @@ import {
   MAXIMUM_PROFILE_STEPS,
   STEP_ENERGY_TOLERANCE_M,
 } from './profile-defaults.js';
-import type { ChannelProfileFailure, ChannelProfileInput, ChannelProfileResult, ProfileProvenance, ProfileReachInput, StepControl } from './profile-types.js';
+import type { ChannelProfileFailure, ChannelProfileInput, ChannelProfileResult, ProfilePoint, ProfileProvenance, ProfileReachInput, ProfileStep, StepControl } from './profile-types.js';
 import { describeReachFlow } from './reach-flow.js';
 import { runSubcriticalPass, surchargeFailure } from './subcritical-pass.js';
 import { runSupercriticalPass } from './supercritical-pass.js';
@@ -66,12 +66,21 @@ export function computeChannelProfile(input: ChannelProfileInput): ChannelProfil
     return surchargeFailure(reaches, subcritical.surcharge ?? { reachIndex, stationM: (reaches[reachIndex] as ResolvedReach).startStationM });
   }
   const notes = [...(outlet.note ? [outlet.note] : []), ...(inlet.note ? [inlet.note] : []), ...subcritical.notes, ...supercritical.notes];
+  const table = assembled.table;
+  // Points and steps are built when first read (profile-assembly.ts says why), then kept.
+  let points: readonly ProfilePoint[] | undefined;
+  let steps: readonly ProfileStep[] | undefined;
   return {
     converged: true,
     dischargeM3s: input.dischargeM3s,
     kineticEnergyCoefficient: alpha,
-    points: assembled.points,
-    steps: assembled.steps,
+    get points() {
+      return (points ??= table.points());
+    },
+    get steps() {
+      return (steps ??= table.steps());
+    },
+    pointTable: table,
     segments: assembled.segments,
     jumps: supercritical.jumps,
     reaches: assembled.reaches,

@@ -115,6 +115,18 @@ export interface ProfilePoint {
   readonly regime: ProfileRegime;
 }
 
+/** A profile's points as columns: index i is points[i]. */
+export interface ProfilePointColumns {
+  readonly length: number;
+  reachIndexAt(index: number): number;
+  depthAt(index: number): number;
+  /** m from the channel's upstream end. */
+  stationAt(index: number): number;
+  regimeAt(index: number): ProfileRegime;
+  /** points[index], built on request. */
+  point(index: number): ProfilePoint;
+}
+
 /**
  * How two consecutive points are joined.
  * - 'gradually-varied': a standard step; headLossM is the friction loss, energyResidualM closes the energy equation.
@@ -245,10 +257,12 @@ export interface ChannelProfile {
   readonly converged: true;
   readonly dischargeM3s: number;
   readonly kineticEnergyCoefficient: number;
-  /** Computed sections in flow order; a junction or a jump appears as two points at the same station. */
+  /** Computed sections in flow order; a junction or a jump appears as two points at the same station. Built on first read. */
   readonly points: readonly ProfilePoint[];
-  /** points.length - 1 joins, in order. */
+  /** points.length - 1 joins, in order. Built on first read. */
   readonly steps: readonly ProfileStep[];
+  /** The same points, read one value at a time without building the point objects. */
+  readonly pointTable: ProfilePointColumns;
   readonly segments: readonly ProfileSegment[];
   readonly jumps: readonly HydraulicJump[];
   readonly reaches: readonly ReachProfileSummary[];

@@ -106,6 +106,13 @@ describe('energy balance at every step (random channels)', () => {
         }
         expect(worstExcessM).toBeLessThanOrEqual(0);
         expect(result.maximumEnergyResidualM).toBeLessThanOrEqual(Math.max(largestAllowanceM, result.energyToleranceM * 1.01 + 1e-12));
+        // The columns the analysis reads in place of the points say the same (profile-assembly.ts builds points on request).
+        const table = result.pointTable;
+        expect(table.length).toBe(result.points.length);
+        result.points.forEach((point, index) => {
+          expect([table.stationAt(index), table.depthAt(index), table.reachIndexAt(index), table.regimeAt(index)]).toEqual([point.stationM, point.depthM, point.reachIndex, point.regime]);
+          expect(table.point(index)).toEqual(point);
+        });
         for (const point of result.points) {
           for (const value of [point.depthM, point.velocityMs, point.froudeNumber, point.waterSurfaceElevationM, point.energyElevationM]) expect(Number.isFinite(value)).toBe(true);
           expect(point.depthM).toBeGreaterThan(0);
