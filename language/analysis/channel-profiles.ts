@@ -14,6 +14,7 @@ import {
   describeJumpType,
   INTERACTIVE_PROFILE_STEPS,
   profileProvenance,
+  ProfileReuse,
   type ChannelProfile,
   type ChannelProfileResult,
   type HydraulicJump,
@@ -146,18 +147,35 @@ export interface ProfileMemo {
   readonly previous: ReadonlyMap<string, readonly ComputedFlowProfile[]> | undefined;
   /** The profiles of this analysis, filled as channels are computed. */
   readonly next: Map<string, readonly ComputedFlowProfile[]>;
+  /**
+   * Within a channel whose profiles must be computed again: the reaches' flow descriptions and marches carried
+   * between the document's analyses (the engine's reach-reuse.ts), so an edit recomputes the reaches it affects.
+   */
+  readonly reaches: ProfileReuse;
+  /** One section object per section key (the previous analysis' where the key is unchanged): reach reuse matches sections by object. */
+  readonly previousSections: ReadonlyMap<string, SectionGeometry> | undefined;
+  readonly sections: Map<string, SectionGeometry>;
 }
 
-let memosByDocument = new WeakMap<object, ReadonlyMap<string, readonly ComputedFlowProfile[]>>();
+interface KeptProfiles {
+  readonly channels: ReadonlyMap<string, readonly ComputedFlowProfile[]>;
+  readonly reaches: ProfileReuse;
+  readonly sections: ReadonlyMap<string, SectionGeometry>;
+}
+
+let memosByDocument = new WeakMap<object, KeptProfiles>();
 
 /** Opens the memo of an analysis of `document` (any object standing for it); `keepProfileMemo` closes it. */
 export function openProfileMemo(document: object): ProfileMemo {
-  return { previous: memosByDocument.get(document), next: new Map() };
+  const kept = memosByDocument.get(document);
+  const reaches = kept?.reaches ?? new ProfileReuse();
+  reaches.startGeneration();
+  return { previous: kept?.channels, next: new Map(), reaches, previousSections: kept?.sections, sections: new Map() };
 }
 
 /** Keeps this analysis' profiles for the document's next analysis. */
 export function keepProfileMemo(document: object, memo: ProfileMemo): void {
-  memosByDocument.set(document, memo.next);
+  memosByDocument.set(document, { channels: memo.next, reaches: memo.reaches, sections: memo.sections });
 }
 
 /** Forgets every remembered channel profile (benchmarks and tests use it to time a fresh computation). */
@@ -167,9 +185,9 @@ export function forgetChannelProfiles(): void {
 
 /** The profile of every flow of a channel, in the order of `flowNames`; taken from the memo when its inputs are unchanged. */
 export function computeChannelProfiles(plan: ChannelPlan, flowNames: readonly string[], memo?: ProfileMemo): readonly ComputedFlowProfile[] {
-  if (memo === undefined) return computeUnremembered(plan, flowNames);
+  if (memo === undefined) return computeUnremembered(plan, flowNames, undefined);
   const key = memoKey(plan, flowNames);
-  const profiles = memo.previous?.get(key) ?? memo.next.get(key) ?? computeUnremembered(plan, flowNames);
+  const profiles = memo.previous?.get(key) ?? memo.next.get(key) ?? computeUnremembered(plan, flowNames, memo);
   memo.next.set(key, profiles);
   return profiles;
 }
@@ -181,11 +199,11 @@ function memoKey(plan: ChannelPlan, flowNames: readonly string[]): string {
   return JSON.stringify([plan.outlet, plan.silentObstacle, flowNames, reaches]);
 }
 
-function computeUnremembered(plan: ChannelPlan, flowNames: readonly string[]): ComputedFlowProfile[] {
+function computeUnremembered(plan: ChannelPlan, flowNames: readonly string[], memo: ProfileMemo | undefined): ComputedFlowProfile[] {
   const bed = channelBed(plan.reaches.map((reach) => ({ slope: reach.slope, length_m: reach.lengthM, upstreamInvert_m: reach.upstreamInvertM, downstreamInvert_m: reach.downstreamInvertM })));
   const engineReaches: ProfileReachInput[] = plan.reaches.map((reach, index) => ({
     name: reach.name,
-    section: reach.section,
+    section: memo === undefined ? reach.section : sameSection(memo, reach),
     manningN: reach.manningN,
     bedSlope: reach.slope,
     lengthM: reach.lengthM,
@@ -196,7 +214,7 @@ function computeUnremembered(plan: ChannelPlan, flowNames: readonly string[]): C
     .filter((flowName) => plan.reaches.some((reach) => reach.dischargesM3s.has(flowName)))
     .map((flowName) => {
       try {
-        return computeFlowProfile(plan, engineReaches, bed.datum, flowName);
+        return computeFlowProfile(plan, engineReaches, bed.datum, flowName, memo?.reaches);
       } catch (error) {
         // The engine reports every physical no-solution case as a result; an exception here is a defect, and the
         // analysis must still never throw on user input: say it where the user sees it.
@@ -204,6 +222,14 @@ function computeUnremembered(plan: ChannelPlan, flowNames: readonly string[]): C
         return unexpectedFailure(plan, bed.datum, flowName, `the computation stopped unexpectedly (${detail}).`);
       }
     });
+}
+
+/** The section object of the previous analysis when the reach's section key is unchanged, else the reach's own. */
+function sameSection(memo: ProfileMemo, reach: ProfileReachPlan): SectionGeometry {
+  let section = memo.sections.get(reach.sectionKey) ?? memo.previousSections?.get(reach.sectionKey);
+  if (section === undefined) section = reach.section;
+  memo.sections.set(reach.sectionKey, section);
+  return section;
 }
 
 /** The engine's outlet control for the outlet written in the design (elevations in the bed's datum). */
@@ -236,7 +262,14 @@ interface Run {
  * the channel below that conduit is computed on its own (its head takes critical depth when steep, as below any
  * inlet); the part above it flows under pressure and has no free-surface profile.
  */
-function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileReachInput[], datum: ChannelFlowProfile['datum'], flowName: string, fromReachIndex = 0): ComputedFlowProfile {
+function computeFlowProfile(
+  plan: ChannelPlan,
+  engineReaches: readonly ProfileReachInput[],
+  datum: ChannelFlowProfile['datum'],
+  flowName: string,
+  reuse: ProfileReuse | undefined,
+  fromReachIndex = 0,
+): ComputedFlowProfile {
   const fail = (failure: ProfileFailure): ComputedFlowProfile => ({
     model: {
       flow: flowName,
@@ -288,7 +321,7 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
       stationM: result.stationM === null ? null : run.startStationM + result.stationM,
     };
     if (failure.reason === 'conduit-surcharged' && failure.reachIndex !== null && failure.reachIndex + 1 < plan.reaches.length) {
-      const below = computeFlowProfile(plan, engineReaches, datum, flowName, failure.reachIndex + 1);
+      const below = computeFlowProfile(plan, engineReaches, datum, flowName, reuse, failure.reachIndex + 1);
       if (below.failure === null) return { ...below, model: { ...below.model, failure: modelFailure(plan, failure) }, failure };
     }
     return fail(failure);
@@ -297,7 +330,7 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
   // From the outlet upstream: each run ends at the level the run below starts with.
   for (let index = runs.length - 1; index >= 0; index--) {
     const run = runs[index] as Run;
-    const result = computeChannelProfile({ reaches: run.reaches, dischargeM3s: run.dischargeM3s, outlet: outletOf(index), stepControl: ANALYSIS_PROFILE_STEP_CONTROL });
+    const result = computeChannelProfile({ reaches: run.reaches, dischargeM3s: run.dischargeM3s, outlet: outletOf(index), stepControl: ANALYSIS_PROFILE_STEP_CONTROL, ...(reuse ? { reuse } : {}) });
     if (!result.converged) return runFailure(run, result);
     run.result = result;
   }
@@ -313,6 +346,7 @@ function computeFlowProfile(plan: ChannelPlan, engineReaches: readonly ProfileRe
       outlet: outletOf(index),
       inlet: { kind: 'depth', depthM: exit.depthM },
       stepControl: ANALYSIS_PROFILE_STEP_CONTROL,
+      ...(reuse ? { reuse } : {}),
     });
     if (!result.converged) return runFailure(run, result);
     run.result = result;

@@ -23,7 +23,7 @@ import {
   STEP_ENERGY_TOLERANCE_M,
 } from './profile-defaults.js';
 import type { ChannelProfileFailure, ChannelProfileInput, ChannelProfileResult, ProfilePoint, ProfileProvenance, ProfileReachInput, ProfileStep, StepControl } from './profile-types.js';
-import { describeReachFlow } from './reach-flow.js';
+import { describeReachFlow, type ReachFlowResult } from './reach-flow.js';
 import { runSubcriticalPass, surchargeFailure } from './subcritical-pass.js';
 import { runSupercriticalPass } from './supercritical-pass.js';
 
@@ -48,7 +48,7 @@ export function computeChannelProfile(input: ChannelProfileInput): ChannelProfil
   if (!outlet.converged) return { converged: false, reason: 'no-outlet-depth', message: outlet.message, reachIndex: last.index, stationM: outletStationM };
   const inlet = resolveInletStart(input.inlet ?? { kind: 'critical-depth' }, first.flow);
 
-  const subcritical = runSubcriticalPass(reaches, outlet.depthM, outlet.isCriticalControl, lossCoefficient, budget);
+  const subcritical = runSubcriticalPass(reaches, outlet.depthM, outlet.isCriticalControl, lossCoefficient, budget, input.reuse);
   if (!subcritical.converged) return subcritical;
   const supercritical = runSupercriticalPass({
     reaches,
@@ -57,6 +57,7 @@ export function computeChannelProfile(input: ChannelProfileInput): ChannelProfil
     tailwaterDepthM: outlet.tailwaterDepthM,
     lossCoefficient,
     budget,
+    reuse: input.reuse,
   });
   if (!supercritical.converged) return supercritical;
 
@@ -150,7 +151,8 @@ function resolveReaches(input: ChannelProfileInput, alpha: number): ResolvedChan
   let stationM = 0;
   for (let index = 0; index < count; index++) {
     const reach = input.reaches[index] as ProfileReachInput;
-    const described = describeReachFlow(reach.section, reach.manningN, reach.bedSlope, input.dischargeM3s, alpha);
+    const describe = (): ReachFlowResult => describeReachFlow(reach.section, reach.manningN, reach.bedSlope, input.dischargeM3s, alpha);
+    const described = input.reuse === undefined ? describe() : input.reuse.reachFlow(reach.section, reach.manningN, reach.bedSlope, input.dischargeM3s, alpha, describe);
     if (!described.converged) {
       return { converged: false, reason: 'invalid-input', message: `Reach "${reach.name}": ${described.message}`, reachIndex: index, stationM };
     }

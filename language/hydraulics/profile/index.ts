@@ -15,6 +15,7 @@
  */
 export * from './profile-types.js';
 export { computeChannelProfile, profileProvenance, type ResolvedStepControl } from './channel-profile.js';
+export { ProfileReuse } from './reach-reuse.js';
 export { classifyProfile, classifySegment, describeSegmentClass } from './profile-class.js';
 export { classifyJump, describeJumpType, jumpEnergyLossM, solveSequentDepth, type SequentDepthResult } from './hydraulic-jump.js';
 export { directStepProfile, type DirectStepInput, type DirectStepPoint, type DirectStepResult } from './direct-step.js';

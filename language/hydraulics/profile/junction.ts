@@ -56,14 +56,18 @@ export function solveJunction(
   branch: FlowBranch,
   lossCoefficient: number,
 ): JunctionOutcome {
-  const knownHeadM = known.invertElevationM + reachSpecificEnergyM(known.flow, knownDepthM);
+  // Heads measured from the known side's invert: the balance depends on the drop between the inverts, not on
+  // where the bed stands, so the same junction gives the same depth bit for bit when an edit elsewhere moves the
+  // whole bed up or down (reach-reuse.ts), and no digits go to large elevations.
+  const knownEnergyM = reachSpecificEnergyM(known.flow, knownDepthM);
   const knownVelocityHeadM = velocityHeadM(known.flow, knownDepthM);
+  const unknownAboveKnownM = unknown.invertElevationM - known.invertElevationM;
   const flow = unknown.flow;
   // The loss is on the downstream side of the balance: subtracted when the unknown side is upstream.
   const lossSign = branch === 'subcritical' ? -1 : 1;
   const excessHead = (depthM: number): number => {
     const hv = velocityHeadM(flow, depthM);
-    return unknown.invertElevationM + depthM + hv + lossSign * lossCoefficient * Math.abs(hv - knownVelocityHeadM) - knownHeadM;
+    return unknownAboveKnownM + depthM + hv + lossSign * lossCoefficient * Math.abs(hv - knownVelocityHeadM) - knownEnergyM;
   };
   const criticalDepthM = flow.criticalDepthM;
   const alpha = flow.kineticEnergyCoefficient;

@@ -5,6 +5,7 @@
  */
 import type { SlopeClass } from '../critical-flow.js';
 import type { SectionGeometry } from '../sections/section-geometry.js';
+import type { ProfileReuse } from './reach-reuse.js';
 
 // ---------------------------------------------------------------------------------------------------------------
 // Input
@@ -85,6 +86,11 @@ export interface ChannelProfileInput {
   /** Kinetic-energy (Coriolis) coefficient alpha, >= 1 (default 1). */
   readonly kineticEnergyCoefficient?: number;
   readonly stepControl?: StepControl;
+  /**
+   * Reach computations remembered from earlier profiles (reach-reuse.ts), taken over where their inputs are the
+   * same; the result is the same as without. Given by callers that recompute similar channels, such as an editor.
+   */
+  readonly reuse?: ProfileReuse;
 }
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -8,7 +8,8 @@ import { invertElevationAt, type ResolvedReach, type SubcriticalTrace } from './
 import { fixed } from './controls.js';
 import { solveJunction } from './junction.js';
 import type { ProfileNote, ProfileFailureReason } from './profile-types.js';
-import { marchAlongReach, type StepBudget } from './standard-step.js';
+import type { ProfileReuse } from './reach-reuse.js';
+import { marchAlongReach, type MarchEnd, type StepBudget } from './standard-step.js';
 
 export interface JunctionRecord {
   /** 'balanced': energy continuity holds; 'critical-control': the flow passes critical depth at the junction. */
@@ -40,6 +41,7 @@ export function runSubcriticalPass(
   outletIsCriticalControl: boolean,
   lossCoefficient: number,
   budget: StepBudget,
+  reuse?: ProfileReuse,
 ): SubcriticalPassResult {
   const traces: SubcriticalTrace[] = new Array<SubcriticalTrace>(reaches.length);
   const junctions: JunctionRecord[] = new Array<JunctionRecord>(Math.max(reaches.length - 1, 0));
@@ -102,14 +104,14 @@ export function runSubcriticalPass(
         stationM: reach.startStationM + reach.lengthM,
       };
     }
-    const march = marchAlongReach(reach.flow, reach.lengthM, startDepthM, 0, 'subcritical', reach.march, budget);
+    const march = subcriticalMarch(reach, startDepthM, budget, reuse);
     if (march.end === 'above-crown') {
-      const stationsM = march.stationsM.reverse();
+      const stationsM = march.stationsM;
       const crownReachedAtM = stationsM[0] ?? reach.lengthM;
       surcharge = { reachIndex: index, stationM: reach.startStationM + crownReachedAtM };
       traces[index] = {
         stationsM,
-        depthsM: march.depthsM.reverse(),
+        depthsM: march.depthsM,
         noSubcriticalDepthAboveM: crownReachedAtM,
         noSubcriticalDepthReason: 'surcharged',
         endIsCriticalControl,
@@ -117,7 +119,7 @@ export function runSubcriticalPass(
       continue;
     }
     if (march.end === 'did-not-converge' || march.end === 'step-limit' || march.end === 'stopped') {
-      const stationM = reach.startStationM + (march.stationsM[march.stationsM.length - 1] ?? reach.lengthM);
+      const stationM = reach.startStationM + (march.stationsM[0] ?? reach.lengthM);
       return {
         converged: false,
         reason: 'did-not-converge',
@@ -126,9 +128,7 @@ export function runSubcriticalPass(
         stationM,
       };
     }
-    // The march ran upstream: reverse its arrays in place to ascending stations.
-    const stationsM = march.stationsM.reverse();
-    const depthsM = march.depthsM.reverse();
+    const { stationsM, depthsM } = march;
     traces[index] = {
       stationsM,
       depthsM,
@@ -138,6 +138,25 @@ export function runSubcriticalPass(
     };
   }
   return { converged: true, traces, surcharge, junctions, notes };
+}
+
+/** A subcritical march up a whole reach, its stations ascending (from the reach's upstream end, m). */
+interface SubcriticalMarch {
+  readonly end: MarchEnd;
+  readonly stationsM: readonly number[];
+  readonly depthsM: readonly number[];
+}
+
+/** The march from the reach's downstream end upstream, taken over from `reuse` when it has the same inputs. */
+function subcriticalMarch(reach: ResolvedReach, startDepthM: number, budget: StepBudget, reuse: ProfileReuse | undefined): SubcriticalMarch {
+  const compute = (): SubcriticalMarch => {
+    const march = marchAlongReach(reach.flow, reach.lengthM, startDepthM, 0, 'subcritical', reach.march, budget);
+    // The march ran upstream: reverse its arrays in place to ascending stations.
+    return { end: march.end, stationsM: march.stationsM.reverse(), depthsM: march.depthsM.reverse() };
+  };
+  if (reuse === undefined) return compute();
+  const key = `subcritical|${reuse.reachMarchKey(reach.flow, reach.lengthM, reach.march)}|${startDepthM}`;
+  return reuse.march(key, budget, compute, (march) => march.end !== 'step-limit');
 }
 
 /** A reach with no known free-surface subcritical depth anywhere (above a surcharged conduit). */

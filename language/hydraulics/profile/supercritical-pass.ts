@@ -19,6 +19,7 @@ import { JUMP_LOCATION_TOLERANCE_M } from './profile-defaults.js';
 import type { HydraulicJump, JumpPlacement, ProfileFailureReason, ProfileNote } from './profile-types.js';
 import { reachSpecificEnergyM, reachSpecificForceM3 } from './reach-flow.js';
 import { solveBracketedRoot } from './scalar-solvers.js';
+import type { ProfileReuse } from './reach-reuse.js';
 import { marchAlongReach, solveStandardStep, type StepBudget } from './standard-step.js';
 
 /** The supercritical profile within one reach: from the reach's upstream end to where it ends. */
@@ -52,6 +53,8 @@ export interface SupercriticalPassInput {
   readonly tailwaterDepthM: number | undefined;
   readonly lossCoefficient: number;
   readonly budget: StepBudget;
+  /** Marches remembered from earlier profiles (reach-reuse.ts). */
+  readonly reuse?: ProfileReuse | undefined;
 }
 
 interface ActiveFlow {
@@ -151,7 +154,19 @@ export function runSupercriticalPass(input: SupercriticalPassInput): Supercritic
     }
 
     if (start !== undefined) {
-      const outcome = marchSupercritical(reach, trace, start.depthM, start.fromReachIndex, start.acrossJunction, budget);
+      const { depthM, fromReachIndex, acrossJunction } = start;
+      const march = (): MarchOutcome => marchSupercritical(reach, trace, depthM, fromReachIndex, acrossJunction, budget);
+      const reuse = input.reuse;
+      // Keyed by the subcritical march it is compared with (the same array object when that march was taken over).
+      const outcome =
+        reuse === undefined
+          ? march()
+          : reuse.march(
+              `supercritical|${reuse.reachMarchKey(flow, reach.lengthM, reach.march)}|${reuse.idOf(trace.stationsM)}|${trace.noSubcriticalDepthAboveM}|${trace.noSubcriticalDepthReason}|${depthM}|${fromReachIndex}|${acrossJunction}|${reach.index}|${reach.startStationM}|${reach.input.name}`,
+              budget,
+              march,
+              (result) => result.converged,
+            );
       if (!outcome.converged) return outcome.failure;
       pieces[index] = outcome.piece;
       if (outcome.jump !== undefined) {
