@@ -404,8 +404,6 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
   const reachName = (index: number): string => plan.reaches[index]?.name ?? '';
   // The model's points are built when first read (the report and exports read them; checks need only the regimes).
   const pointRuns: { readonly table: ProfilePointColumns; readonly offsetM: number; readonly reachOffset: number }[] = [];
-  const regimes: ProfilePoint['regime'][] = [];
-  const pointReaches: number[] = [];
   const segments: ProfileSegmentResult[] = [];
   const notes: ProfileNoteResult[] = [];
   const summaries: (ReachProfileSummary | undefined)[] = plan.reaches.map(() => undefined);
@@ -419,13 +417,8 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     const isLast = runIndex === runs.length - 1;
     const next = runs[runIndex + 1];
     // The origin of supercritical flow carried in from the run above: where it began there.
-    const carriedOriginIndex = run.carriedIn ? supercriticalOriginReachIndex(regimes, pointReaches, regimes.length - 1) : undefined;
-    const table = result.pointTable;
-    pointRuns.push({ table, offsetM, reachOffset });
-    for (let index = 0; index < table.length; index++) {
-      regimes.push(table.regimeAt(index));
-      pointReaches.push(table.reachIndexAt(index) + reachOffset);
-    }
+    const carriedOriginIndex = run.carriedIn ? supercriticalOriginReachIndex(pointRuns) : undefined;
+    pointRuns.push({ table: result.pointTable, offsetM, reachOffset });
     for (const segment of result.segments) {
       segments.push({
         reach: reachName(segment.reachIndex + reachOffset),
@@ -535,13 +528,13 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
 
   // Supercritical flow leaving the channel with no jump, although it crossed a reach that could have held one.
   let sweptOutExit: SweptOutExit | null = null;
-  const lastIndex = regimes.length - 1;
   const lastRun = pointRuns.findLast((run) => run.table.length > 0);
   const lastPoint =
     lastRun === undefined ? undefined : modelPoint(lastRun.table.point(lastRun.table.length - 1), lastRun.offsetM, (reachIndex) => reachName(reachIndex + lastRun.reachOffset));
   const endsWithJump = jumps.some((jump) => jump.result.placement === 'beyond-outlet');
-  if (lastPoint !== undefined && regimes[lastIndex] === 'supercritical' && !endsWithJump) {
-    const originReachIndex = supercriticalOriginReachIndex(regimes, pointReaches, lastIndex) ?? (pointReaches[lastIndex] as number);
+  const exitOriginReachIndex = supercriticalOriginReachIndex(pointRuns);
+  if (lastPoint !== undefined && exitOriginReachIndex !== undefined && !endsWithJump) {
+    const originReachIndex = exitOriginReachIndex;
     const holdingReachIndex = holdingReachAtOrBelow(originReachIndex);
     if (holdingReachIndex !== undefined) {
       sweptOutExit = {
@@ -604,10 +597,18 @@ function inChannelStations(text: string, offsetM: number): string {
   return text.replace(/station (-?\d+(?:\.\d+)?) m/g, (_match, value: string) => `station ${(Number(value) + offsetM).toFixed(2)} m`);
 }
 
-/** The reach of the first point of the unbroken supercritical stretch that ends at `endIndex`; undefined if that point is not supercritical. */
-function supercriticalOriginReachIndex(regimes: readonly ProfilePoint['regime'][], pointReaches: readonly number[], endIndex: number): number | undefined {
-  if (regimes[endIndex] !== 'supercritical') return undefined;
-  let index = endIndex;
-  while (index > 0 && regimes[index - 1] === 'supercritical') index--;
-  return pointReaches[index];
+/**
+ * The reach (channel index) of the first point of the unbroken supercritical stretch that ends at the last point of
+ * the runs so far; undefined if that point is not supercritical.
+ */
+function supercriticalOriginReachIndex(pointRuns: readonly { readonly table: ProfilePointColumns; readonly reachOffset: number }[]): number | undefined {
+  let origin: number | undefined;
+  for (let runIndex = pointRuns.length - 1; runIndex >= 0; runIndex--) {
+    const { table, reachOffset } = pointRuns[runIndex] as (typeof pointRuns)[number];
+    for (let index = table.length - 1; index >= 0; index--) {
+      if (table.regimeAt(index) !== 'supercritical') return origin;
+      origin = table.reachIndexAt(index) + reachOffset;
+    }
+  }
+  return origin;
 }

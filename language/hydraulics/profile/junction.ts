@@ -21,6 +21,7 @@
  * critical depth at the junction (the brink of a drop, a choke), and supercritical flow cannot pass the junction.
  */
 import type { FlowBranch } from './flow-branch.js';
+import type { ProfileReuse } from './reach-reuse.js';
 import { STEP_ENERGY_TOLERANCE_M } from './profile-defaults.js';
 import { criticalDepthWithAlphaM, reachSpecificEnergyM, velocityHeadM, type ReachFlow } from './reach-flow.js';
 import { minimiseUnimodal, solveBracketedRoot } from './scalar-solvers.js';
@@ -45,6 +46,25 @@ export type JunctionOutcome =
   | { readonly kind: 'above-crown' }
   | { readonly kind: 'did-not-converge' };
 
+/** solveJunction, taken over from `reuse` (reach-reuse.ts) when the same junction was balanced before. */
+export function solveJunctionReusing(
+  reuse: ProfileReuse | undefined,
+  known: JunctionSide,
+  knownDepthM: number,
+  unknown: JunctionSide,
+  branch: FlowBranch,
+  lossCoefficient: number,
+): JunctionOutcome {
+  const solve = (): JunctionOutcome => solveJunction(known, knownDepthM, unknown, branch, lossCoefficient);
+  if (reuse === undefined) return solve();
+  return reuse.junction(known.flow, knownDepthM, unknown.flow, unknownAboveKnownM(known, unknown), branch, lossCoefficient, solve);
+}
+
+/** The unknown side's invert above the known side's, m: the only elevation the balance uses. */
+function unknownAboveKnownM(known: JunctionSide, unknown: JunctionSide): number {
+  return unknown.invertElevationM - known.invertElevationM;
+}
+
 /**
  * Solves the junction for the unknown side's depth on `branch` (m). `known` is the downstream side for a
  * subcritical pass and the upstream side for a supercritical one; knownDepthM is its depth, m.
@@ -61,13 +81,13 @@ export function solveJunction(
   // whole bed up or down (reach-reuse.ts), and no digits go to large elevations.
   const knownEnergyM = reachSpecificEnergyM(known.flow, knownDepthM);
   const knownVelocityHeadM = velocityHeadM(known.flow, knownDepthM);
-  const unknownAboveKnownM = unknown.invertElevationM - known.invertElevationM;
+  const dropM = unknownAboveKnownM(known, unknown);
   const flow = unknown.flow;
   // The loss is on the downstream side of the balance: subtracted when the unknown side is upstream.
   const lossSign = branch === 'subcritical' ? -1 : 1;
   const excessHead = (depthM: number): number => {
     const hv = velocityHeadM(flow, depthM);
-    return unknownAboveKnownM + depthM + hv + lossSign * lossCoefficient * Math.abs(hv - knownVelocityHeadM) - knownEnergyM;
+    return dropM + depthM + hv + lossSign * lossCoefficient * Math.abs(hv - knownVelocityHeadM) - knownEnergyM;
   };
   const criticalDepthM = flow.criticalDepthM;
   const alpha = flow.kineticEnergyCoefficient;

@@ -49,13 +49,13 @@ export class ProfilePointTable implements ProfilePointColumns {
   constructor(
     private readonly reaches: readonly ResolvedReach[],
     /** Station of each point, m from its reach's upstream end. */
-    private readonly localStationsM: readonly number[],
-    private readonly depthsM: readonly number[],
-    private readonly reachIndices: readonly number[],
+    private readonly localStationsM: Float64Array,
+    private readonly depthsM: Float64Array,
+    private readonly reachIndices: Int32Array,
     /** stepKinds[i] joins point i to point i + 1; so do headLossesM[i] and energyResidualsM[i] (NaN: no balance imposed). */
     private readonly stepKinds: readonly ProfileStepKind[],
-    private readonly headLossesM: readonly number[],
-    private readonly energyResidualsM: readonly number[],
+    private readonly headLossesM: Float64Array,
+    private readonly energyResidualsM: Float64Array,
   ) {}
 
   get length(): number {
@@ -120,46 +120,33 @@ export function assembleProfile(
   jumps: readonly HydraulicJump[],
   lossCoefficient: number,
 ): AssemblyResult {
-  const localStationsM: number[] = [];
-  const depthsM: number[] = [];
-  const reachIndices: number[] = [];
-  const joins: PointJoin[] = [];
-  const firstPointOfReach: number[] = [];
+  // Two passes over the reaches' points: count them (and find a surcharge), then fill columns of that length.
+  let count = 0;
   for (const reach of reaches) {
-    firstPointOfReach.push(depthsM.length);
-    const trace = traces[reach.index] as SubcriticalTrace;
-    const piece = pieces[reach.index];
-    const add = (localStationM: number, depthM: number, join: PointJoin): void => {
-      localStationsM.push(localStationM);
-      depthsM.push(depthM);
-      reachIndices.push(reach.index);
-      joins.push(join);
-    };
-    let resumeAfterM: number | undefined = Number.NEGATIVE_INFINITY;
-    if (piece !== undefined) {
-      for (let i = 0; i < piece.stationsM.length; i++) add(piece.stationsM[i] ?? 0, piece.depthsM[i] ?? 0, 'step');
-      if (piece.jumpDownstreamDepthM !== undefined && piece.resumeSubcriticalAfterM !== undefined) {
-        add(piece.resumeSubcriticalAfterM, piece.jumpDownstreamDepthM, 'jump');
-      }
-      resumeAfterM = piece.resumeSubcriticalAfterM === undefined ? undefined : piece.resumeSubcriticalAfterM + 1e-9 * reach.lengthM;
-    }
-    if (resumeAfterM !== undefined && trace.noSubcriticalDepthReason === 'surcharged' && resumeAfterM < (trace.noSubcriticalDepthAboveM ?? 0)) {
-      // The profile needs the subcritical flow where the conduit would flow full: no supercritical flow holds it.
-      return { converged: false, surchargedReachIndex: reach.index };
-    }
-    if (resumeAfterM !== undefined) {
-      for (let i = 0; i < trace.stationsM.length; i++) {
-        const stationM = trace.stationsM[i] ?? 0;
-        if (stationM > resumeAfterM) add(stationM, trace.depthsM[i] ?? 0, 'step');
-      }
-    }
+    const outcome = visitReachPoints(reach, traces[reach.index] as SubcriticalTrace, pieces[reach.index], () => count++);
+    if (outcome === 'surcharged') return { converged: false, surchargedReachIndex: reach.index };
+  }
+  const localStationsM = new Float64Array(count);
+  const depthsM = new Float64Array(count);
+  const reachIndices = new Int32Array(count);
+  const joins = new Array<PointJoin>(count);
+  const firstPointOfReach: number[] = [];
+  let filled = 0;
+  for (const reach of reaches) {
+    firstPointOfReach.push(filled);
+    visitReachPoints(reach, traces[reach.index] as SubcriticalTrace, pieces[reach.index], (localStationM, depthM, join) => {
+      localStationsM[filled] = localStationM;
+      depthsM[filled] = depthM;
+      reachIndices[filled] = reach.index;
+      joins[filled] = join;
+      filled++;
+    });
   }
 
-  const count = depthsM.length;
   const stepCount = Math.max(count - 1, 0);
   const stepKinds = new Array<ProfileStepKind>(stepCount);
-  const headLossesM = new Array<number>(stepCount);
-  const energyResidualsM = new Array<number>(stepCount);
+  const headLossesM = new Float64Array(stepCount);
+  const energyResidualsM = new Float64Array(stepCount);
   let maximumEnergyResidualM = 0;
   // Each point's friction slope and energy elevation serve the steps on both sides of it.
   const reachOf = (index: number): ResolvedReach => reaches[reachIndices[index] ?? 0] as ResolvedReach;
@@ -227,6 +214,35 @@ export function assembleProfile(
     summariseReach(reach, table, firstPointOfReach[position] ?? count, firstPointOfReach[position + 1] ?? count, segments),
   );
   return { converged: true, table, segments, reaches: summaries, maximumEnergyResidualM };
+}
+
+/**
+ * The points of one reach in flow order: the supercritical piece (and the depth after its jump), then the
+ * subcritical trace below where the piece hands over. 'surcharged' when the profile needs subcritical flow where the
+ * conduit would flow full (no supercritical flow holds it); the points are then incomplete.
+ */
+function visitReachPoints(
+  reach: ResolvedReach,
+  trace: SubcriticalTrace,
+  piece: SupercriticalPiece | undefined,
+  add: (localStationM: number, depthM: number, join: PointJoin) => void,
+): 'surcharged' | undefined {
+  let resumeAfterM: number | undefined = Number.NEGATIVE_INFINITY;
+  if (piece !== undefined) {
+    for (let i = 0; i < piece.stationsM.length; i++) add(piece.stationsM[i] ?? 0, piece.depthsM[i] ?? 0, 'step');
+    if (piece.jumpDownstreamDepthM !== undefined && piece.resumeSubcriticalAfterM !== undefined) {
+      add(piece.resumeSubcriticalAfterM, piece.jumpDownstreamDepthM, 'jump');
+    }
+    resumeAfterM = piece.resumeSubcriticalAfterM === undefined ? undefined : piece.resumeSubcriticalAfterM + 1e-9 * reach.lengthM;
+  }
+  if (resumeAfterM !== undefined && trace.noSubcriticalDepthReason === 'surcharged' && resumeAfterM < (trace.noSubcriticalDepthAboveM ?? 0)) return 'surcharged';
+  if (resumeAfterM !== undefined) {
+    for (let i = 0; i < trace.stationsM.length; i++) {
+      const stationM = trace.stationsM[i] ?? 0;
+      if (stationM > resumeAfterM) add(stationM, trace.depthsM[i] ?? 0, 'step');
+    }
+  }
+  return undefined;
 }
 
 function velocityHead(reach: ResolvedReach, velocityMs: number): number {

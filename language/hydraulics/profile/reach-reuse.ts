@@ -1,7 +1,7 @@
 /**
  * Work on single reaches that a profile computation may take over from earlier computations: a reach's flow
- * description (critical and normal depth, slope class) and its subcritical and supercritical marches, each
- * remembered under every input it depends on.
+ * description (critical and normal depth, slope class), its subcritical and supercritical marches and the balances
+ * at its junctions, each remembered under every input it depends on.
  *
  * Why: an editor recomputes a channel's profiles on every edit, and an edit usually changes one reach. In
  * subcritical flow its effect travels upstream only until a critical-depth control (the brink of a drop, a break
@@ -18,6 +18,7 @@
  *
  * Memory: a generation is one analysis; entries used in the current or the previous generation are kept.
  */
+import type { JunctionOutcome } from './junction.js';
 import type { ReachFlow, ReachFlowResult } from './reach-flow.js';
 import type { SectionGeometry } from '../sections/section-geometry.js';
 import type { MarchSettings, StepBudget } from './standard-step.js';
@@ -44,8 +45,19 @@ export class ProfileReuse {
 
   /** The flow description of a reach (describeReachFlow), computed once per section object and numbers. */
   reachFlow(section: SectionGeometry, manningN: number, bedSlope: number, dischargeM3s: number, alpha: number, compute: () => ReachFlowResult): ReachFlowResult {
-    const key = `flow|${this.idOf(section)}|${manningN}|${bedSlope}|${dischargeM3s}|${alpha}`;
-    const remembered = this.get<ReachFlowResult>(key);
+    return this.remember(`flow|${this.idOf(section)}|${manningN}|${bedSlope}|${dischargeM3s}|${alpha}`, compute);
+  }
+
+  /**
+   * A junction balance (junction.ts): `dropM` is the unknown side's invert minus the known side's, computed as the
+   * balance computes it; nothing else of the elevations enters it.
+   */
+  junction(knownFlow: ReachFlow, knownDepthM: number, unknownFlow: ReachFlow, dropM: number, branch: string, lossCoefficient: number, compute: () => JunctionOutcome): JunctionOutcome {
+    return this.remember(`junction|${this.idOf(knownFlow)}|${knownDepthM}|${this.idOf(unknownFlow)}|${dropM}|${branch}|${lossCoefficient}`, compute);
+  }
+
+  private remember<T>(key: string, compute: () => T): T {
+    const remembered = this.get<T>(key);
     if (remembered !== undefined) {
       this.counts.reused++;
       return remembered;

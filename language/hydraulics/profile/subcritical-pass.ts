@@ -6,7 +6,7 @@
  */
 import { invertElevationAt, type ResolvedReach, type SubcriticalTrace } from './channel-model.js';
 import { fixed } from './controls.js';
-import { solveJunction } from './junction.js';
+import { solveJunctionReusing } from './junction.js';
 import type { ProfileNote, ProfileFailureReason } from './profile-types.js';
 import type { ProfileReuse } from './reach-reuse.js';
 import { marchAlongReach, type MarchEnd, type StepBudget } from './standard-step.js';
@@ -61,7 +61,8 @@ export function runSubcriticalPass(
     const belowTrace = traces[index + 1];
     if (below !== undefined && belowTrace !== undefined) {
       const belowDepthM = belowTrace.noSubcriticalDepthAboveM !== undefined ? below.flow.criticalDepthM : (belowTrace.depthsM[0] ?? below.flow.criticalDepthM);
-      const outcome = solveJunction(
+      const outcome = solveJunctionReusing(
+        reuse,
         { flow: below.flow, invertElevationM: below.upstreamInvertElevationM },
         belowDepthM,
         { flow: reach.flow, invertElevationM: reach.downstreamInvertElevationM },

@@ -14,7 +14,7 @@ import { froudeNumber } from '../critical-flow.js';
 import { firstTraceStationAtOrBelow, subcriticalDepthAt, type ResolvedReach, type SubcriticalTrace } from './channel-model.js';
 import { fixed } from './controls.js';
 import { classifyJump, describeJumpType, solveSequentDepth } from './hydraulic-jump.js';
-import { solveJunction } from './junction.js';
+import { solveJunctionReusing } from './junction.js';
 import { JUMP_LOCATION_TOLERANCE_M } from './profile-defaults.js';
 import type { HydraulicJump, JumpPlacement, ProfileFailureReason, ProfileNote } from './profile-types.js';
 import { reachSpecificEnergyM, reachSpecificForceM3 } from './reach-flow.js';
@@ -97,7 +97,8 @@ export function runSupercriticalPass(input: SupercriticalPassInput): Supercritic
     } else if (active !== undefined) {
       const above = reaches[index - 1] as ResolvedReach;
       const aboveTrace = traces[index - 1] as SubcriticalTrace;
-      const crossing = solveJunction(
+      const crossing = solveJunctionReusing(
+        input.reuse,
         { flow: above.flow, invertElevationM: above.downstreamInvertElevationM },
         active.depthM,
         { flow, invertElevationM: reach.upstreamInvertElevationM },
