@@ -59,7 +59,7 @@ import {
 } from './design-inputs.js';
 import { criterionFromSettingRemark, FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
 import { computeChannelProfiles, forgetChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
-import { channelKey, designContextKey, forgetChannelMemos, keepChannelMemo, openChannelMemo, type ChannelMemo } from './channel-memo.js';
+import { channelKey, designContextKey, forgetChannelMemos, keepChannelMemo, openChannelMemo, referencesByChannel, type ChannelMemo } from './channel-memo.js';
 import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
 import type {
   ChannelResult,
@@ -98,7 +98,9 @@ export function analyzeDocument(document: LangiumDocument, criteriaDefaults: Cri
   const cached = analysisCache.get(document);
   if (cached !== undefined && cached.version === version && cached.criteriaKey === criteriaKey && sameNodes(cached.dependencies, dependencies)) return cached.analysis;
   const memo: AnalysisMemo = { profiles: openProfileMemo(document), channels: openChannelMemo(document) };
-  const analysis = isRunnelFile(root) ? analyzeFile(root, document.uri.toString(), version, memo, criteriaDefaults) : emptyAnalysis(document.uri.toString(), version, criteriaDefaults);
+  const analysis = isRunnelFile(root)
+    ? analyzeFile(root, document.uri.toString(), version, memo, criteriaDefaults, referencesByChannel(document))
+    : emptyAnalysis(document.uri.toString(), version, criteriaDefaults);
   keepProfileMemo(document, memo.profiles);
   keepChannelMemo(document, memo.channels);
   analysisCache.set(document, { version, criteriaKey, dependencies, analysis });
@@ -213,7 +215,14 @@ function emptyAnalysis(uri: string, version: number, criteriaDefaults: CriteriaD
   };
 }
 
-function analyzeFile(file: RunnelFile, uri: string, version: number, memo: AnalysisMemo, criteriaDefaults: CriteriaDefaults): DesignAnalysis {
+function analyzeFile(
+  file: RunnelFile,
+  uri: string,
+  version: number,
+  memo: AnalysisMemo,
+  criteriaDefaults: CriteriaDefaults,
+  channelReferences: ReturnType<typeof referencesByChannel>,
+): DesignAnalysis {
   const { system, origin } = displayUnitsOf(file);
   const formatter = new MessageFormatter(system);
   const criteriaBlocks = designCriteriaBlocks(file);
@@ -224,7 +233,7 @@ function analyzeFile(file: RunnelFile, uri: string, version: number, memo: Analy
   const channelFindings: (readonly Finding[])[] = [];
   const channels = designChannels(file).map((channel) => {
     // A channel whose inputs did not change since the previous version keeps its results (channel-memo.ts).
-    const key = channelKey(channel, contextKey, memo.channels);
+    const key = channelKey(channel, contextKey, memo.channels, channelReferences === undefined ? undefined : (channelReferences.get(channel) ?? []));
     let remembered = memo.channels.previous?.get(key) ?? memo.channels.next.get(key);
     if (remembered === undefined) {
       const leftOut: IncompleteReach[] = [];

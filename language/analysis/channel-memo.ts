@@ -13,8 +13,8 @@
  * analysis is checked against a fresh one after random edits (test/analysis/incremental-analysis.test.ts).
  * Results are never modified, so sharing them between analyses is safe; only the last analysis' channels are kept.
  */
-import { isAstNode, isMultiReference, isReference, type AstNode, type MultiReference, type Reference } from 'langium';
-import { isFlowTable, type Channel, type RunnelFile } from '../generated/ast.js';
+import { DocumentState, isAstNode, isMultiReference, isReference, type AstNode, type LangiumDocument, type MultiReference, type Reference } from 'langium';
+import { isChannel, isFlowTable, type Channel, type RunnelFile } from '../generated/ast.js';
 import { designCriteriaBlocks } from './design-inputs.js';
 import type { ChannelResult, Finding, IncompleteReach } from './model.js';
 import { documentUriOf } from './source-locations.js';
@@ -68,10 +68,36 @@ export function designContextKey(file: RunnelFile, displayUnits: string, criteri
   return parts.join('\u0000');
 }
 
-/** The key of a channel in a design context (see the module comment). */
-export function channelKey(channel: Channel, contextKey: string, memo: ChannelMemo): string {
+/**
+ * The references inside each channel, in document order, from the linked document's list of references (a walk of
+ * the channels' trees costs more: it lists every node's properties); undefined when the list cannot say (the
+ * document is not linked, or a reference has no syntax node), and the key then walks the channel.
+ */
+export function referencesByChannel(document: LangiumDocument): Map<AstNode, (Reference | MultiReference)[]> | undefined {
+  if (document.state < DocumentState.Linked) return undefined;
+  const byChannel = new Map<AstNode, (Reference | MultiReference)[]>();
+  for (const reference of document.references) {
+    let node: AstNode | undefined = reference.$refNode?.astNode;
+    if (node === undefined) return undefined;
+    while (node !== undefined && !isChannel(node)) node = node.$container;
+    if (node === undefined) continue;
+    let list = byChannel.get(node);
+    if (list === undefined) {
+      list = [];
+      byChannel.set(node, list);
+    }
+    list.push(reference);
+  }
+  return byChannel;
+}
+
+/**
+ * The key of a channel in a design context (see the module comment); `references` are the channel's references from
+ * referencesByChannel, when it could list them.
+ */
+export function channelKey(channel: Channel, contextKey: string, memo: ChannelMemo, references?: readonly (Reference | MultiReference)[]): string {
   const parts = [contextKey, placedText(channel)];
-  visitReferences(channel, (reference) => {
+  const visit = (reference: Reference | MultiReference): void => {
     if (!isReference(reference)) {
       // Runnel's grammar has single references only; should another kind appear, the channel is never reused.
       parts.push(`not-remembered-${unrememberedCount++}`);
@@ -88,7 +114,9 @@ export function channelKey(channel: Channel, contextKey: string, memo: ChannelMe
       memo.targetKeys.set(target, key);
     }
     parts.push(key);
-  });
+  };
+  if (references === undefined) visitReferences(channel, visit);
+  else for (const reference of references) visit(reference);
   return parts.join('\u0000');
 }
 

@@ -8,7 +8,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { AstUtils } from 'langium';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import { referencesByChannel } from '../../language/analysis/channel-memo.js';
+import { isChannel } from '../../language/generated/ast.js';
 import { NO_CRITERIA_DEFAULTS, type CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { LspWorkspace, memoryUri, sampleTexts } from '../server/lsp-workspace.js';
@@ -139,5 +142,22 @@ describe('the analysis after an edit', () => {
     const [same] = await fresh.set({ 'three.runnel': silent });
     expect(withoutVersion(after)).toEqual(withoutVersion(analyzeDocument(same!, twoFeet)));
     expect(after.findings.some((finding) => finding.code === 'freeboard-below-required')).toBe(true);
+  });
+
+  it("lists each channel's references from the linked document as a walk of the channel's tree finds them", async () => {
+    const editor = await LspWorkspace.create();
+    const documents = await editor.set({ ...sampleTexts(), 'three.runnel': THREE_CHANNELS });
+    let channels = 0;
+    for (const document of documents) {
+      const listed = referencesByChannel(document);
+      expect(listed).toBeDefined();
+      for (const channel of AstUtils.streamAllContents(document.parseResult.value).filter(isChannel)) {
+        channels++;
+        const walked = AstUtils.streamAst(channel).flatMap((node) => AstUtils.streamReferences(node)).toArray();
+        expect(walked.length).toBeGreaterThan(0);
+        expect((listed?.get(channel) ?? []).map((reference) => reference.$refText)).toEqual(walked.map((info) => info.reference.$refText));
+      }
+    }
+    expect(channels).toBeGreaterThanOrEqual(5);
   });
 });
