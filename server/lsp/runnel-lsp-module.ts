@@ -50,6 +50,7 @@ import { RunnelGeneratedModule, RunnelGeneratedSharedModule } from '../../langua
 import { RunnelModule, type RunnelAddedServices } from '../../language/runnel-module.js';
 import { RunnelCodeActionProvider } from './code-actions.js';
 import { RunnelCompletionProvider } from './completion-provider.js';
+import { followWorkspaceFolders } from './workspace-folders.js';
 import { followCriteriaSettings } from './criteria-from-settings.js';
 import { registerCustomRequests } from './custom-requests.js';
 import { addVersionedDiagnosticsHandler } from './diagnostics-publisher.js';
@@ -159,6 +160,7 @@ export function startRunnelLanguageServer(shared: LangiumSharedServices, Runnel:
   });
   Runnel.runnel.Settings.onDidChange(() => refreshHints());
   followCriteriaSettings({ connection, shared, services: Runnel, settings: Runnel.runnel.Settings, log, onApplied: refreshHints });
+  followWorkspaceFolders(connection, shared, Runnel.runnel.Settings, log);
 }
 
 /**
@@ -194,7 +196,12 @@ function startProtocol(connection: Connection, shared: LangiumSharedServices): v
   addConfigurationChangeHandler(connection, shared);
   addGoToDeclarationHandler(connection, shared);
   addWorkspaceSymbolHandler(connection, shared);
-  connection.onInitialize((params) => shared.lsp.LanguageServer.initialize(params));
+  connection.onInitialize(async (params) => {
+    const result = await shared.lsp.LanguageServer.initialize(params);
+    // Langium reads the workspace folders once; Runnel follows later changes too (workspace-folders.ts).
+    const workspace = result.capabilities.workspace;
+    return { ...result, capabilities: { ...result.capabilities, workspace: { ...workspace, workspaceFolders: { ...workspace?.workspaceFolders, supported: true, changeNotifications: true } } } };
+  });
   connection.onInitialized((params) => shared.lsp.LanguageServer.initialized(params));
   shared.workspace.TextDocuments.listen(connection);
   connection.listen();

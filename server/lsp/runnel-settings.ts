@@ -102,6 +102,7 @@ export class RunnelSettings {
   private readonly ready: Promise<void>;
   private readonly fetched: Promise<void>;
   private readonly changed = new Emitter<SettingsSnapshot>();
+  private readonly fetchFolders: () => Promise<void>;
 
   constructor(shared: LangiumSharedServices) {
     const configuration = shared.workspace.ConfigurationProvider;
@@ -112,12 +113,17 @@ export class RunnelSettings {
       this.folderUris = folders;
     });
     /** Each folder's section, asked with the folder as scope; a failed or empty answer leaves it to the window's. */
-    const fetchFolders = async (): Promise<void> => {
-      if (connection === undefined || this.folderUris.length === 0) return;
-      const answers: unknown[] = await connection.workspace.getConfiguration(this.folderUris.map((scopeUri) => ({ scopeUri, section: SETTINGS_SECTION })));
+    this.fetchFolders = async (): Promise<void> => {
+      const folderUris = this.folderUris;
+      if (connection === undefined || folderUris.length === 0) {
+        this.folders = new Map();
+        return;
+      }
+      const answers: unknown[] = await connection.workspace.getConfiguration(folderUris.map((scopeUri) => ({ scopeUri, section: SETTINGS_SECTION })));
       // A folder the client answers nothing for (null, as for an unknown section) keeps the window's settings.
-      this.folders = new Map(this.folderUris.flatMap((folder, index) => (isRecord(answers[index]) ? [[folder, parseSettings(answers[index])] as const] : [])));
+      this.folders = new Map(folderUris.flatMap((folder, index) => (isRecord(answers[index]) ? [[folder, parseSettings(answers[index])] as const] : [])));
     };
+    const fetchFolders = this.fetchFolders;
     configuration.onConfigurationSectionUpdate((update) => {
       if (update.section !== SETTINGS_SECTION) return;
       this.latest = parseSettings(update.configuration);
@@ -137,6 +143,16 @@ export class RunnelSettings {
       })
       .catch(() => undefined);
     this.ready = Promise.race([this.fetched, new Promise<void>((resolve) => setTimeout(resolve, FIRST_CONFIGURATION_WAIT_MS).unref())]);
+  }
+
+  /**
+   * The workspace folders changed while the server runs (workspace-folders.ts): each folder's settings are read
+   * again, the folders gone forgotten, and the change announced as a change of settings.
+   */
+  async setWorkspaceFolders(folderUris: readonly string[]): Promise<void> {
+    this.folderUris = [...folderUris];
+    await this.fetchFolders().catch(() => undefined);
+    this.changed.fire(this.snapshot());
   }
 
   /** The settings as the client first sent them, however long that takes (the defaults if the fetch failed). */

@@ -148,6 +148,12 @@ export class TestLanguageClient {
     await this.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version }, contentChanges: [{ range, text }] });
   }
 
+  /** Folders added to and removed from the workspace, by path (`workspace/didChangeWorkspaceFolders`). */
+  async changeWorkspaceFolders(added: readonly string[], removed: readonly string[]): Promise<void> {
+    const folder = (path: string): { uri: string; name: string } => ({ uri: pathToUri(path), name: path.split('/').pop() ?? path });
+    await this.connection.sendNotification('workspace/didChangeWorkspaceFolders', { event: { added: added.map(folder), removed: removed.map(folder) } });
+  }
+
   async changeSettings(settings: Record<string, unknown>): Promise<void> {
     this.settings = settings;
     await this.connection.sendNotification('workspace/didChangeConfiguration', { settings: { runnel: settings } });
