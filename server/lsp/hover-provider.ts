@@ -160,8 +160,8 @@ export function reachHover(reach: ReachResult, system: UnitSystem): string {
   const capacity = reach.bankfullCapacity_m3s;
   if (capacity !== null) lines.push('', `${reach.section.fullDepth_m === null ? 'Bank-full' : 'Full-pipe'} capacity: ${formatQuantity(capacity, 'discharge', system)}`);
   // A criterion the file does not state is named, so the file alone is not taken to explain the checks.
-  const fromSettings = criteriaFromSettings(reach.criteria, system);
-  if (fromSettings.length > 0) lines.push('', `Criteria ${CRITERION_FROM_SETTING}: ${escapeMarkdownInline(fromSettings.map((criterion) => criterion.text).join('; '))}.`);
+  const fromSettings = settingCriteriaLine([reach], system);
+  if (fromSettings !== undefined) lines.push('', fromSettings);
   const findings = reach.flows.flatMap((flow) => flow.findings);
   if (findings.length > 0) {
     lines.push('', '**Findings**');
@@ -169,6 +169,16 @@ export function reachHover(reach: ReachResult, system: UnitSystem): string {
   }
   lines.push('', `_${escapeMarkdownInline(methodLine(reach))}_`);
   return lines.join('\n');
+}
+
+/**
+ * The criteria in force for these reaches that came from an editor setting rather than the file, each once; none
+ * when the file states them all.
+ */
+function settingCriteriaLine(reaches: readonly ReachResult[], system: UnitSystem): string | undefined {
+  const texts = new Map<string, string>();
+  for (const reach of reaches) for (const criterion of criteriaFromSettings(reach.criteria, system)) if (!texts.has(criterion.key)) texts.set(criterion.key, criterion.text);
+  return texts.size === 0 ? undefined : `Criteria ${CRITERION_FROM_SETTING}: ${escapeMarkdownInline([...texts.values()].join('; '))}.`;
 }
 
 /** One line on method and assumptions, from the reach's provenance (the same words as the report). */
@@ -207,6 +217,8 @@ function flowHover(analysis: DesignAnalysis, flow: Flow, change: FlowChange | un
     ...rows.slice(0, LISTED_REACHES).map(({ reach, flow: result }) => flowRow(reach, result, system)),
   ];
   if (rows.length > LISTED_REACHES) lines.push('', `… and ${rows.length - LISTED_REACHES} more reaches (see the report).`);
+  const fromSettings = settingCriteriaLine(rows.map((row) => row.reach), system);
+  if (fromSettings !== undefined) lines.push('', fromSettings);
   return lines.join('\n');
 }
 
@@ -261,7 +273,8 @@ function channelHover(analysis: DesignAnalysis, channel: Channel, system: UnitSy
   const rows = result.reaches.slice(0, LISTED_REACHES).map((reach) => `- \`${reach.name}\`: ${reachStatusText(reach, system)}`);
   const more = result.reaches.length > LISTED_REACHES ? [`- … and ${result.reaches.length - LISTED_REACHES} more`] : [];
   const outlet = result.outlet === null ? 'no outlet condition' : result.outlet.kind === 'water-level' ? `outlet water level ${formatQuantity(result.outlet.elevation_m, 'length', system)}` : `outlet ${result.outlet.kind.replace('-', ' ')}`;
-  return [heading, '', `${result.reaches.length} reach${result.reaches.length === 1 ? '' : 'es'}; ${outlet}`, '', ...rows, ...more].join('\n');
+  const fromSettings = settingCriteriaLine(result.reaches, system);
+  return [heading, '', `${result.reaches.length} reach${result.reaches.length === 1 ? '' : 'es'}; ${outlet}`, '', ...rows, ...more, ...(fromSettings === undefined ? [] : ['', fromSettings])].join('\n');
 }
 
 // ------------------------------------------------------------------------------------------------ quantities

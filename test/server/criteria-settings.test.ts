@@ -83,6 +83,13 @@ describe('criteria settings through the protocol', () => {
     const value = hover !== null && typeof hover.contents === 'object' && 'value' in hover.contents ? hover.contents.value : '';
     expect(value).toContain('**Reach `ditch`**');
     expect(value).toContain(`Criteria ${FROM_SETTING}: Freeboard criterion: at least 0.914 m.`);
+    // The same line on the hover of the flow's name (line 4) and of the channel's name (line 5).
+    for (const position of [{ line: 4, character: 8 }, { line: 5, character: 8 }]) {
+      const other = await client.request<Hover | null>('textDocument/hover', { textDocument: { uri }, position });
+      const text = other !== null && typeof other.contents === 'object' && 'value' in other.contents ? other.contents.value : '';
+      expect(text).toMatch(/^\*\*(Flow|Channel) `(q|c)`\*\*/);
+      expect(text).toContain(`Criteria ${FROM_SETTING}: Freeboard criterion: at least 0.914 m.`);
+    }
     const report = await client.request<RenderReportResult>(RENDER_REPORT_REQUEST, { uri });
     expect(report.html).toContain('data-role="criteria-from-settings"');
     expect(report.html).toContain(`at least 0.914 m (${FROM_SETTING})`);
