@@ -308,7 +308,8 @@ function computeFlowProfile(
   const runs = splitIntoRuns(plan, engineReaches, flowName, fromReachIndex);
   const channelOutlet = engineOutlet(outlet);
   const outletOf = (runIndex: number): OutletControl => {
-    const head = runs[runIndex + 1]?.result?.pointTable.point(0);
+    const below = runs[runIndex + 1]?.result;
+    const head = below === undefined ? undefined : firstPointOf(below.pointTable);
     if (runIndex === runs.length - 1 || head === undefined) return channelOutlet;
     return { kind: 'water-level', elevationM: head.waterSurfaceElevationM };
   };
@@ -337,8 +338,8 @@ function computeFlowProfile(
   // From the head down: supercritical flow leaving a run enters the next one.
   for (let index = 1; index < runs.length; index++) {
     const above = (runs[index - 1] as Run).result as ChannelProfile;
-    const exit = above.pointTable.point(above.pointTable.length - 1);
-    if (exit.regime !== 'supercritical') continue;
+    const exit = lastPointOf(above.pointTable);
+    if (exit?.regime !== 'supercritical') continue;
     const run = runs[index] as Run;
     const result = computeChannelProfile({
       reaches: run.reaches,
@@ -436,9 +437,9 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
       if (jump.placement === 'beyond-outlet' && !isLast) {
         if (carriedOn) continue;
         // The water below the change of discharge holds it at the junction: its depths and loss are those there.
-        const exit = result.pointTable.point(result.pointTable.length - 1);
-        const below = next?.result?.pointTable.point(0);
-        if (below === undefined) continue;
+        const exit = lastPointOf(result.pointTable);
+        const below = next?.result === undefined ? undefined : firstPointOf(next.result.pointTable);
+        if (exit === undefined || below === undefined) continue;
         const energyLossM = exit.energyElevationM - below.energyElevationM;
         jump = {
           ...jump,
@@ -573,6 +574,15 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     sweptOutExit,
     failure: null,
   };
+}
+
+/** The first and last point of a profile's columns; undefined when it has none. */
+function firstPointOf(table: ProfilePointColumns): ProfilePoint | undefined {
+  return table.length > 0 ? table.point(0) : undefined;
+}
+
+function lastPointOf(table: ProfilePointColumns): ProfilePoint | undefined {
+  return table.length > 0 ? table.point(table.length - 1) : undefined;
 }
 
 /** An engine point in the model's words and the channel's stations (offsetM: where the point's run starts). */
