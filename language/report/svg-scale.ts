@@ -86,9 +86,15 @@ export function formatTick(value: number, step: number): string {
 /** A coordinate in px with at most two decimals; non-finite values (never expected) become 0, never "NaN". */
 export function px(value: number): string {
   if (!Number.isFinite(value)) return '0';
-  const rounded = Math.round(value * 100) / 100;
+  // A coordinate millions of pixels off the drawing only means "far beyond this edge": clamp it, so that enormous
+  // inputs (a width of 1e308 m) can neither overflow to Infinity below nor write absurd numbers into the page.
+  const clamped = Math.min(Math.max(value, -FARTHEST_COORDINATE_PX), FARTHEST_COORDINATE_PX);
+  const rounded = Math.round(clamped * 100) / 100;
   return (Object.is(rounded, -0) ? 0 : rounded).toString();
 }
+
+/** The farthest any drawn coordinate is written from the origin, px (drawings are about 720 px wide). */
+const FARTHEST_COORDINATE_PX = 1e6;
 
 /** An SVG path through points ("M x y L x y ..."), optionally closed. */
 export function pathThrough(points: readonly { readonly x: number; readonly y: number }[], close: boolean): string {

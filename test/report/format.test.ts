@@ -5,6 +5,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { formatNumber } from '../../language/analysis/format-quantity.js';
+import { px } from '../../language/report/svg-scale.js';
 import { formatElevation, formatFixed, formatQuantity, formatSignificant, formatTimestampUtc, MISSING_VALUE } from '../../language/report/format.js';
 
 describe('report number formatting', () => {
@@ -37,5 +38,22 @@ describe('report number formatting', () => {
   it('prints the timestamp in UTC', () => {
     expect(formatTimestampUtc(new Date('2025-12-31T23:59:30-05:00'))).toBe('2026-01-01 04:59 UTC');
     expect(formatTimestampUtc(new Date(Number.NaN))).toBe(MISSING_VALUE);
+  });
+});
+
+describe('drawing coordinates', () => {
+  it('property: any number becomes a finite coordinate of at most a million pixels, to the hundredth of a pixel', () => {
+    fc.assert(
+      fc.property(fc.double(), (value) => {
+        const text = px(value);
+        expect(text).toMatch(/^-?\d+(\.\d{1,2})?$/);
+        expect(Math.abs(Number(text))).toBeLessThanOrEqual(1e6);
+        if (Number.isFinite(value) && Math.abs(value) <= 1e6) expect(Math.abs(Number(text) - value)).toBeLessThanOrEqual(0.005 + 1e-9);
+      }),
+      { numRuns: 2000 },
+    );
+    // 1e307 times 100 overflows a double: the clamp comes first.
+    expect(px(1.7e307)).toBe('1000000');
+    expect(px(-1.7976931348623157e308)).toBe('-1000000');
   });
 });

@@ -25,5 +25,5 @@ export const FUZZ_SCALE = scale;
 /** Counts of problems set aside as known defects, printed once per suite. */
 export function reportSetAside(suite: string, counts: ReadonlyMap<string, number>): void {
   if (counts.size === 0) return;
-  console.warn(`${suite}: set aside ${[...counts].map(([id, count]) => `${count} x ${id}`).join(', ')} (known defects in others' code, see test/robustness/known-defects.ts)`);
+  console.warn(`${suite}: set aside ${[...counts].map(([id, count]) => `${count} x ${id}`).join(', ')} (known defects, see test/robustness/known-defects.ts)`);
 }
