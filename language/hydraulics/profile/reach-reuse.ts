@@ -24,7 +24,7 @@ import type { SectionGeometry } from '../sections/section-geometry.js';
 import type { MarchSettings, StepBudget } from './standard-step.js';
 
 /** A remembered computation and the profile steps it took. */
-export interface RememberedMarch<T> {
+interface RememberedMarch<T> {
   readonly value: T;
   readonly steps: number;
 }
