@@ -20,11 +20,9 @@ import {
   isUnitsSetting,
   type Channel,
   type Flow,
-  type Lining,
   type Outlet,
   type Reach,
   type RunnelFile,
-  type Section,
 } from '../generated/ast.js';
 import {
   boundaryShear,
@@ -33,7 +31,6 @@ import {
   criticalSlope,
   fullFlowCapacityM3s,
   hydraulicStateAt,
-  manningDischargeM3s,
   maximumUniformFlowCapacityM3s,
   NORMAL_DEPTH_BAND_RATIO,
   solveNormalDepth,
@@ -49,18 +46,24 @@ import {
   designFlows,
   reachParts,
   resolveCriteria,
-  resolveLining,
-  resolveReachGeometry,
-  resolveSection,
-  type FlowDischarge,
-  type ResolvedLining,
-  type ResolvedReachGeometry,
-  type ResolvedSection,
 } from './design-inputs.js';
 import { criterionFromSettingRemark, FINDING_CODES, FINDING_MESSAGES, LOWER_OF_TWO_DEPTHS_NOTE, MessageFormatter } from './finding-messages.js';
 import { computeChannelProfiles, forgetChannelProfiles, keepProfileMemo, openProfileMemo, type ComputedFlowProfile, type ProfileMemo, type ProfileReachPlan } from './channel-profiles.js';
-import { channelKey, designContextKey, forgetChannelMemos, keepChannelMemo, openChannelMemo, referencesByChannel, type ChannelMemo } from './channel-memo.js';
-import { profileFindingDrafts, type FindingDraft, type ReachForFindings } from './profile-findings.js';
+import {
+  channelKey,
+  designContextKey,
+  forgetChannelMemos,
+  keepChannelMemo,
+  openChannelMemo,
+  reachKey,
+  referencesByChannel,
+  type ChannelMemo,
+  type RememberedChannel,
+  type RememberedFlow,
+  type RememberedReach,
+} from './channel-memo.js';
+import { reachDischarges, resolveReachInputs, sameData, type ReachDischarge, type ReachInputs, type ReachProfileShare } from './reach-inputs.js';
+import { profileFindingDrafts, type ReachForFindings } from './profile-findings.js';
 import type {
   ChannelResult,
   CheckStatus,
@@ -69,18 +72,14 @@ import type {
   Finding,
   FlowResult,
   IncompleteReach,
-  LiningResult,
-  ReachFlowProfile,
+  ProfileSegmentResult,
   ReachResult,
-  ResolvedCriteria,
-  SectionResult,
   Severity,
-  SourceLocation,
   StateResult,
 } from './model.js';
 import { CAUTION, DESIGN_ASSUMPTIONS, DESIGN_PROVENANCE, REACH_PROVENANCE } from './provenance.js';
 import { isQuantityNode, quantitySI } from './quantities.js';
-import { locationOf, propertyLocationOf } from './source-locations.js';
+import { locationOf } from './source-locations.js';
 
 // ------------------------------------------------------------------------------------------------ public API
 
@@ -231,16 +230,18 @@ function analyzeFile(
   // The criteria defaults from settings feed every channel's criteria: they are part of every channel's key.
   const contextKey = designContextKey(file, system, criteriaDefaultsKey(criteriaDefaults));
   const channelFindings: (readonly Finding[])[] = [];
+  const reachMemo = memo.channels.reaches;
   const channels = designChannels(file).map((channel) => {
     // A channel whose inputs did not change since the previous version keeps its results (channel-memo.ts).
-    const key = channelKey(channel, contextKey, memo.channels, channelReferences === undefined ? undefined : (channelReferences.get(channel) ?? []));
+    const references = channelReferences?.get(channel);
+    const key = channelKey(channel, contextKey, memo.channels, channelReferences === undefined ? undefined : (references ?? []));
     let remembered = memo.channels.previous?.get(key) ?? memo.channels.next.get(key);
     if (remembered === undefined) {
-      const leftOut: IncompleteReach[] = [];
-      const result = analyzeChannel(channel, flows, criteriaBlocks, system, formatter, leftOut, memo.profiles, criteriaDefaults);
-      remembered = { result, incompleteReaches: leftOut, findings: result.reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)) };
+      const reachKeyOf = (reach: Reach): string | undefined => (channelReferences === undefined ? undefined : reachKey(reach, contextKey, channel.name ?? '', memo.channels, channelReferences.get(reach) ?? []));
+      remembered = analyzeChannel(channel, flows, criteriaBlocks, system, formatter, memo, criteriaDefaults, reachKeyOf);
     }
     memo.channels.next.set(key, remembered);
+    for (const [reachKeyText, reach] of remembered.reaches) reachMemo.next.set(reachKeyText, reach);
     incompleteReaches.push(...remembered.incompleteReaches);
     channelFindings.push(remembered.findings);
     return remembered.result;
@@ -288,114 +289,110 @@ function analyzeChannel(
   designCriteria: ReturnType<typeof designCriteriaBlocks>,
   system: UnitSystem,
   formatter: MessageFormatter,
-  incompleteReaches: IncompleteReach[],
-  memo: ProfileMemo,
+  memo: AnalysisMemo,
   criteriaDefaults: CriteriaDefaults,
-): ChannelResult {
+  reachKeyOf: (reach: Reach) => string | undefined,
+): RememberedChannel {
   const channelName = channel.name ?? '';
   const dischargesByReach = channelFlowDischarges(channel, flows);
   const outletNode = (channel.members ?? []).find(isOutlet);
   const outlet = outletOf(outletNode);
+  const reachMemo = memo.channels.reaches;
 
-  // Resolve every reach first: the water-surface profile runs through all of them.
-  const analysed: { readonly context: ReachContext; readonly geometry: ResolvedReachGeometry; readonly discharges: Map<Flow, FlowDischarge> }[] = [];
+  // Resolve every reach first: the water-surface profile runs through all of them. A reach whose text, place and
+  // referenced nodes are unchanged keeps its resolution, and later its results where its share of the profile is
+  // unchanged too (channel-memo.ts).
+  const analysed: { readonly inputs: ReachInputs; readonly discharges: readonly ReachDischarge[]; readonly key: string | undefined; readonly remembered: RememberedReach | undefined }[] = [];
+  const incompleteReaches: IncompleteReach[] = [];
+  const reachEntries: (readonly [string, RememberedReach])[] = [];
   const leftOut: string[] = [];
   for (const member of channel.members ?? []) {
     if (!isReach(member)) continue;
-    const incomplete = (reason: string): void => {
-      incompleteReaches.push({ channel: channelName, reach: member.name ?? '', reason, location: propertyLocationOf(member, 'name') });
-      leftOut.push(member.name ?? '');
-    };
-    const geometry = resolveReachGeometry(member);
-    if (!geometry.ok) {
-      incomplete(geometry.reason);
+    const key = reachKeyOf(member);
+    const remembered = key === undefined ? undefined : (reachMemo.previous?.get(key) ?? reachMemo.next.get(key));
+    const resolution = remembered?.resolution ?? resolveReachInputs(channelName, member, designCriteria, system, criteriaDefaults);
+    if (!resolution.ok) {
+      incompleteReaches.push(resolution.incomplete);
+      leftOut.push(resolution.incomplete.reach);
+      if (key !== undefined) reachEntries.push([key, remembered ?? { resolution, flows: [], result: null }]);
       continue;
     }
-    const section = resolveSection(geometry.value.section);
-    if (!section.ok) {
-      incomplete(section.reason);
-      continue;
-    }
-    const lining = resolveLining(geometry.value.lining);
-    if (!lining.ok) {
-      incomplete(lining.reason);
-      continue;
-    }
-    const context: ReachContext = {
-      channelName,
-      reach: member,
-      reachName: member.name ?? '',
-      reachNameLocation: propertyLocationOf(member, 'name'),
-      sectionNode: geometry.value.section,
-      section: section.value,
-      liningNode: geometry.value.lining,
-      lining: lining.value,
-      slope: geometry.value.slope,
-      criteria: resolveCriteria(designCriteria, reachParts(member).criteria, system, criteriaDefaults),
-      formatter,
-    };
-    analysed.push({ context, geometry: geometry.value, discharges: dischargesByReach.get(member) ?? new Map<Flow, FlowDischarge>() });
+    analysed.push({ inputs: resolution.inputs, discharges: reachDischarges(flows, dischargesByReach.get(member)), key, remembered });
   }
 
   // One profile per design flow through the whole channel.
-  const profileReaches: ProfileReachPlan[] = analysed.map(({ context, geometry, discharges }) => ({
-    name: context.reachName,
-    section: context.section.geometry,
-    sectionKey: `${context.section.shape}${JSON.stringify(context.section.dimensions)}`,
-    manningN: context.lining.manningN,
-    slope: geometry.slope,
-    lengthM: geometry.lengthM,
-    bankHeightM: context.section.fullDepthM === null ? context.section.bankDepthM : null,
-    upstreamInvertM: geometry.upstreamInvertM,
-    downstreamInvertM: geometry.downstreamInvertM,
-    dischargesM3s: new Map([...discharges].map(([flow, discharge]) => [flow.name ?? '', discharge.dischargeM3s])),
-    nearCriticalFroudeHigh: context.criteria.avoidFroude.high,
+  const profileReaches: ProfileReachPlan[] = analysed.map(({ inputs, discharges }) => ({
+    name: inputs.reachName,
+    section: inputs.section.geometry,
+    sectionKey: inputs.sectionKey,
+    manningN: inputs.lining.manningN,
+    slope: inputs.slope,
+    lengthM: inputs.lengthM,
+    bankHeightM: inputs.section.fullDepthM === null ? inputs.section.bankDepthM : null,
+    upstreamInvertM: inputs.upstreamInvertM,
+    downstreamInvertM: inputs.downstreamInvertM,
+    dischargesM3s: new Map(discharges.map((discharge) => [discharge.flowName, discharge.dischargeM3s])),
+    nearCriticalFroudeHigh: inputs.criteria.avoidFroude.high,
   }));
   const silentObstacle =
     leftOut.length > 0 ? `Reach${leftOut.length > 1 ? 'es' : ''} ${leftOut.map((name) => `'${name}'`).join(', ')} could not be analysed, so the channel has no continuous profile.` : analysed.length === 0 ? 'The channel has no reach to compute.' : null;
-  const profiles = computeChannelProfiles({ reaches: profileReaches, outlet, silentObstacle }, uniqueNames(flows), memo);
+  const profiles = computeChannelProfiles({ reaches: profileReaches, outlet, silentObstacle }, uniqueNames(flows), memo.profiles);
   const profileByFlow = new Map(profiles.map((profile) => [profile.model.flow, profile]));
-  const findingReaches: ReachForFindings[] = analysed.map(({ context }) => ({
-    name: context.reachName,
-    sectionName: context.sectionNode.name ?? '',
-    section: context.section.geometry,
-    sectionLocation: locationOf(context.sectionNode),
-    manningN: context.lining.manningN,
-    liningName: context.liningNode.name ?? '',
-    liningLocation: locationOf(context.liningNode),
-    maxVelocityMps: context.lining.maxVelocityMps,
-    maxShearPa: context.lining.maxShearPa,
+  const findingReaches: ReachForFindings[] = analysed.map(({ inputs }) => ({
+    name: inputs.reachName,
+    sectionName: inputs.sectionName,
+    section: inputs.section.geometry,
+    sectionLocation: inputs.sectionLocation,
+    manningN: inputs.lining.manningN,
+    liningName: inputs.liningName,
+    liningLocation: inputs.liningLocation,
+    maxVelocityMps: inputs.lining.maxVelocityMps,
+    maxShearPa: inputs.lining.maxShearPa,
   }));
   const outletLocation = outletNode === undefined ? null : locationOf(outletNode);
   const draftsByFlow = new Map(profiles.map((profile) => [profile.model.flow, profileFindingDrafts(findingReaches, profile, formatter, outletLocation)]));
+  const segmentsByFlow = new Map(profiles.map((profile) => [profile.model.flow, segmentsByReach(profile)]));
 
-  const reaches: ReachResult[] = analysed.map(({ context, geometry, discharges }, reachIndex) => {
-    const flowResults = flows.flatMap((flow) => {
-      const discharge = discharges.get(flow);
-      if (discharge === undefined) return [];
-      const flowName = flow.name ?? '';
-      const profile = profileByFlow.get(flowName);
-      return [analyzeFlow(context, discharge, { profile, reachProfile: profile?.reachProfiles[reachIndex] ?? null, drafts: draftsByFlow.get(flowName)?.get(reachIndex) ?? [] })];
+  const reaches: ReachResult[] = analysed.map(({ inputs, discharges, key, remembered }, reachIndex) => {
+    let allTakenOver = remembered?.result !== undefined && remembered.result !== null && remembered.flows.length === discharges.length;
+    const flowEntries: RememberedFlow[] = discharges.map((discharge, flowIndex) => {
+      const profile = profileByFlow.get(discharge.flowName);
+      const reachProfile = profile?.reachProfiles[reachIndex] ?? null;
+      const share: ReachProfileShare = {
+        reachProfile,
+        drafts: draftsByFlow.get(discharge.flowName)?.get(reachIndex) ?? [],
+        maximumDepthClass: reachProfile === null ? null : profileClassAt(segmentsByFlow.get(discharge.flowName)?.get(inputs.reachName), reachProfile.maximumDepthStation_m),
+      };
+      const before = remembered?.flows[flowIndex];
+      if (before !== undefined && sameData(before.discharge, discharge) && sameData(before.share, share)) return before;
+      allTakenOver = false;
+      return { discharge, share, result: analyzeFlow(inputs, discharge, share, formatter) };
     });
-    return {
-      channel: channelName,
-      name: context.reachName,
-      location: locationOf(context.reach),
-      nameLocation: context.reachNameLocation,
-      section: sectionResult(geometry.section, context.section),
-      lining: liningResult(geometry.lining, context.lining),
-      slope: geometry.slope,
-      length_m: geometry.lengthM,
-      upstreamInvert_m: geometry.upstreamInvertM,
-      downstreamInvert_m: geometry.downstreamInvertM,
-      bankfullCapacity_m3s: bankfullCapacityM3s(context.section, context.lining, geometry.slope),
-      criteria: context.criteria,
-      flows: flowResults,
-      status: statusOf(flowResults.flatMap((flow) => flow.findings)),
-      provenance: REACH_PROVENANCE,
-    };
+    const result: ReachResult =
+      allTakenOver && remembered?.result
+        ? remembered.result
+        : {
+            channel: channelName,
+            name: inputs.reachName,
+            location: inputs.reachLocation,
+            nameLocation: inputs.reachNameLocation,
+            section: inputs.sectionResult,
+            lining: inputs.liningResult,
+            slope: inputs.slope,
+            length_m: inputs.lengthM,
+            upstreamInvert_m: inputs.upstreamInvertM,
+            downstreamInvert_m: inputs.downstreamInvertM,
+            bankfullCapacity_m3s: inputs.bankfullCapacityM3s,
+            criteria: inputs.criteria,
+            flows: flowEntries.map((entry) => entry.result),
+            status: statusOf(flowEntries.flatMap((entry) => entry.result.findings)),
+            provenance: REACH_PROVENANCE,
+          };
+    if (key !== undefined) reachEntries.push([key, allTakenOver && remembered !== undefined ? remembered : { resolution: { ok: true, inputs }, flows: flowEntries, result }]);
+    return result;
   });
-  return { name: channelName, location: locationOf(channel), description: channel.description ?? null, outlet, reaches, profiles: profiles.map((profile) => profile.model) };
+  const result: ChannelResult = { name: channelName, location: locationOf(channel), description: channel.description ?? null, outlet, reaches, profiles: profiles.map((profile) => profile.model) };
+  return { result, incompleteReaches, findings: reaches.flatMap((reach) => reach.flows.flatMap((flow) => flow.findings)), reaches: reachEntries };
 }
 
 /** Flow names in order, each once (a repeated name is reported by validation). */
@@ -419,62 +416,7 @@ function outletOf(outlet: Outlet | undefined): ChannelResult['outlet'] {
   }
 }
 
-function sectionResult(node: Section, section: ResolvedSection): SectionResult {
-  return {
-    name: node.name ?? '',
-    shape: section.shape,
-    dimensions: section.dimensions,
-    bankDepth_m: section.fullDepthM === null ? section.bankDepthM : null,
-    fullDepth_m: section.fullDepthM,
-    location: locationOf(node),
-    description: node.description ?? null,
-  };
-}
-
-function liningResult(node: Lining, lining: ResolvedLining): LiningResult {
-  return {
-    name: node.name ?? '',
-    manningN: lining.manningN,
-    maxVelocity_mps: lining.maxVelocityMps,
-    maxShear_Pa: lining.maxShearPa,
-    description: node.description ?? null,
-    location: locationOf(node),
-    source: lining.source,
-  };
-}
-
-function bankfullCapacityM3s(section: ResolvedSection, lining: ResolvedLining, slope: number): number | null {
-  if (!(slope > 0)) return null;
-  let capacityM3s: number | undefined;
-  if (section.fullDepthM !== null) capacityM3s = fullFlowCapacityM3s(section.geometry, lining.manningN, slope);
-  else if (section.bankDepthM !== null) capacityM3s = manningDischargeM3s(section.geometry, section.bankDepthM, lining.manningN, slope);
-  // Dimensions near the limits of double precision overflow here: no capacity rather than Infinity or NaN.
-  return capacityM3s !== undefined && Number.isFinite(capacityM3s) ? capacityM3s : null;
-}
-
 // ------------------------------------------------------------------------------------------------ one flow
-
-interface ReachContext {
-  readonly channelName: string;
-  readonly reach: Reach;
-  readonly reachName: string;
-  readonly reachNameLocation: SourceLocation;
-  readonly sectionNode: Section;
-  readonly section: ResolvedSection;
-  readonly liningNode: Lining;
-  readonly lining: ResolvedLining;
-  readonly slope: number;
-  readonly criteria: ResolvedCriteria;
-  readonly formatter: MessageFormatter;
-}
-
-/** The channel's profile at this flow as far as one reach is concerned. */
-interface ReachProfileInput {
-  readonly profile: ComputedFlowProfile | undefined;
-  readonly reachProfile: ReachFlowProfile | null;
-  /** Jump and profile findings drafted for this reach and flow (profile-findings.ts). */
-  readonly drafts: readonly FindingDraft[];
-}
 
 /**
  * The computed water surface governs the over-topping and freeboard checks where it stands above normal depth by
@@ -483,12 +425,11 @@ interface ReachProfileInput {
  */
 const PROFILE_ABOVE_NORMAL_RATIO = 1e-6;
 
-function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInput: ReachProfileInput): FlowResult {
-  const { section, lining, slope, criteria, formatter: f } = context;
-  const reachProfile = profileInput.reachProfile;
-  const flowName = discharge.flow.name ?? '';
-  const dischargeM3s = discharge.dischargeM3s;
-  const flowLocation = locationOf(discharge.source);
+/** One reach at one flow: uniform-flow states and every check, with the reach's share of the channel's profile. */
+function analyzeFlow(context: ReachInputs, discharge: ReachDischarge, profileShare: ReachProfileShare, f: MessageFormatter): FlowResult {
+  const { section, lining, slope, criteria } = context;
+  const reachProfile = profileShare.reachProfile;
+  const { flowName, dischargeM3s, flowLocation } = discharge;
   const findings: Finding[] = [];
   const report = (code: string, severity: Severity, message: string, data: Record<string, number | string>, related: Finding['related'] = [], location = context.reachNameLocation): void => {
     findings.push({
@@ -503,8 +444,8 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
       data: { discharge_m3s: dischargeM3s, ...data },
     });
   };
-  const sectionRelated = { message: `Section '${context.sectionNode.name ?? ''}'`, location: locationOf(context.sectionNode) };
-  const liningRelated = { message: `Lining '${context.liningNode.name ?? ''}'`, location: locationOf(context.liningNode) };
+  const sectionRelated = { message: `Section '${context.sectionName}'`, location: context.sectionLocation };
+  const liningRelated = { message: `Lining '${context.liningName}'`, location: context.liningLocation };
 
   // Critical depth does not depend on slope or roughness; critical slope does.
   const critical = criticalSlope(section.geometry, dischargeM3s, lining.manningN);
@@ -527,7 +468,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
         report(
           FINDING_CODES.conduitTwoDepthZone,
           'warning',
-          FINDING_MESSAGES.conduitTwoDepthZone(f, { flow: flowName, dischargeM3s, section: context.sectionNode.name ?? '', normalDepthM: solution.depthM, fullCapacityM3s, peakCapacityM3s }),
+          FINDING_MESSAGES.conduitTwoDepthZone(f, { flow: flowName, dischargeM3s, section: context.sectionName, normalDepthM: solution.depthM, fullCapacityM3s, peakCapacityM3s }),
           { normalDepth_m: solution.depthM, fullCapacity_m3s: fullCapacityM3s, peakCapacity_m3s: peakCapacityM3s },
           [sectionRelated],
         );
@@ -535,7 +476,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
     } else if (solution.reason === 'exceeds-capacity') {
       const peakCapacityM3s = solution.capacityM3s ?? maximumUniformFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? Number.NaN;
       const fullCapacityM3s = fullFlowCapacityM3s(section.geometry, lining.manningN, slope) ?? null;
-      normalDepthNote = FINDING_MESSAGES.conduitOverCapacity(f, { flow: flowName, dischargeM3s, section: context.sectionNode.name ?? '', peakCapacityM3s, fullCapacityM3s });
+      normalDepthNote = FINDING_MESSAGES.conduitOverCapacity(f, { flow: flowName, dischargeM3s, section: context.sectionName, peakCapacityM3s, fullCapacityM3s });
       report(FINDING_CODES.conduitOverCapacity, 'error', normalDepthNote, { peakCapacity_m3s: peakCapacityM3s, ...(fullCapacityM3s === null ? {} : { fullCapacity_m3s: fullCapacityM3s }) }, [sectionRelated]);
     } else {
       normalDepthNote = FINDING_MESSAGES.depthSolveFailed(f, { flow: flowName, detail: solution.message });
@@ -578,10 +519,10 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
           depthM,
           stationM,
           bankDepthM,
-          section: context.sectionNode.name ?? '',
+          section: context.sectionName,
           ranges: reachProfile.overtoppedRanges,
           normalDepthM: normal?.depth_m ?? null,
-          profileClass: profileClassAt(profileInput.profile, context.reachName, stationM),
+          profileClass: profileShare.maximumDepthClass,
         }),
         {
           depth_m: depthM,
@@ -607,7 +548,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
             depthM,
             stationM,
             normalDepthM: normal?.depth_m ?? null,
-            profileClass: profileClassAt(profileInput.profile, context.reachName, stationM),
+            profileClass: profileShare.maximumDepthClass,
             usbrCoefficientM,
           }),
           {
@@ -634,7 +575,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
           flow: flowName,
           normalDepthM: normal.depth_m,
           bankDepthM,
-          section: context.sectionNode.name ?? '',
+          section: context.sectionName,
           profileMaximum: drawnDown && reachProfile !== null ? { depthM: reachProfile.maximumDepth_m, stationM: reachProfile.maximumDepthStation_m } : null,
         }),
         { normalDepth_m: normal.depth_m, bankDepth_m: bankDepthM, judgedOn: 'normal-depth' },
@@ -675,7 +616,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
       report(
         FINDING_CODES.velocityAbovePermissible,
         normal.velocity_mps > lining.maxVelocityMps * (1 + margin) ? 'error' : 'warning',
-        FINDING_MESSAGES.velocityAbovePermissible(f, { flow: flowName, velocityMps: normal.velocity_mps, permissibleMps: lining.maxVelocityMps, lining: context.liningNode.name ?? '', margin }),
+        FINDING_MESSAGES.velocityAbovePermissible(f, { flow: flowName, velocityMps: normal.velocity_mps, permissibleMps: lining.maxVelocityMps, lining: context.liningName, margin }),
         { velocity_mps: normal.velocity_mps, permissible_mps: lining.maxVelocityMps, limitMargin: margin },
         [liningRelated],
       );
@@ -684,7 +625,7 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
       report(
         FINDING_CODES.shearAbovePermissible,
         shear.maximumPa > lining.maxShearPa * (1 + margin) ? 'error' : 'warning',
-        FINDING_MESSAGES.shearAbovePermissible(f, { flow: flowName, shearPa: shear.maximumPa, permissiblePa: lining.maxShearPa, lining: context.liningNode.name ?? '', margin }),
+        FINDING_MESSAGES.shearAbovePermissible(f, { flow: flowName, shearPa: shear.maximumPa, permissiblePa: lining.maxShearPa, lining: context.liningName, margin }),
         { maxShear_Pa: shear.maximumPa, permissible_Pa: lining.maxShearPa, limitMargin: margin },
         [liningRelated],
       );
@@ -701,14 +642,14 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
 
   // Jumps and profile failures drafted for this reach; a surcharge already reported as over capacity is not repeated.
   const overCapacity = findings.some((finding) => finding.code === FINDING_CODES.conduitOverCapacity);
-  for (const draft of profileInput.drafts) {
+  for (const draft of profileShare.drafts) {
     if (draft.code === FINDING_CODES.conduitSurcharged && overCapacity) continue;
     report(draft.code, draft.severity, draft.message, draft.data, draft.related, draft.location);
   }
 
   return {
     flow: flowName,
-    description: discharge.flow.description ?? null,
+    description: discharge.description,
     discharge_m3s: dischargeM3s,
     flowLocation,
     normal,
@@ -727,9 +668,20 @@ function analyzeFlow(context: ReachContext, discharge: FlowDischarge, profileInp
   };
 }
 
+/** Each reach's profile segments, by reach name, in flow order. */
+function segmentsByReach(profile: ComputedFlowProfile): Map<string, ProfileSegmentResult[]> {
+  const byReach = new Map<string, ProfileSegmentResult[]>();
+  for (const segment of profile.model.segments) {
+    const list = byReach.get(segment.reach);
+    if (list === undefined) byReach.set(segment.reach, [segment]);
+    else list.push(segment);
+  }
+  return byReach;
+}
+
 /** The class of the profile segment of a reach that contains a station ('M1', ...); null when not found. */
-function profileClassAt(profile: ComputedFlowProfile | undefined, reachName: string, stationM: number): string | null {
-  const segment = profile?.model.segments.find((candidate) => candidate.reach === reachName && stationM >= candidate.fromStation_m && stationM <= candidate.toStation_m && candidate.profileClass !== 'uniform');
+function profileClassAt(reachSegments: readonly ProfileSegmentResult[] | undefined, stationM: number): string | null {
+  const segment = reachSegments?.find((candidate) => stationM >= candidate.fromStation_m && stationM <= candidate.toStation_m && candidate.profileClass !== 'uniform');
   return segment?.profileClass ?? null;
 }
 

@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { AstUtils } from 'langium';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { referencesByChannel } from '../../language/analysis/channel-memo.js';
-import { isChannel } from '../../language/generated/ast.js';
+import { isChannel, isReach } from '../../language/generated/ast.js';
 import { NO_CRITERIA_DEFAULTS, type CriteriaDefaults } from '../../language/analysis/criteria-settings.js';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { LspWorkspace, memoryUri, sampleTexts } from '../server/lsp-workspace.js';
@@ -34,6 +34,31 @@ const THREE_CHANNELS = [
       `  reach ${name}3 {\n    section ditch\n    lining grass\n    slope 0.3 %\n    length 150 ft\n  }\n` +
       '  outlet free fall\n}',
   ),
+].join('\n');
+
+/**
+ * One channel of 14 reaches: mild and steep slopes in turn (so jumps form and critical depth controls the reaches
+ * above each break), a discharge change part way down, a reach with its own criteria and one given by inverts. An
+ * edit to one reach leaves the others to be taken over where their share of the profile is unchanged.
+ */
+const LONG_CHANNEL = [
+  'design "One long ditch"',
+  'units US',
+  'criteria {\n  freeboard 0.5 ft\n}',
+  'flows {\n  q10 = 14 cfs "10-year"\n  q100 = 32 cfs "100-year"\n}',
+  'section ditch trapezoid {\n  bottom width 2 ft\n  side slopes 3:1\n  bank height 2 ft\n}',
+  'section culvert circle {\n  diameter 30 in\n}',
+  'lining grass {\n  n 0.035\n  permissible shear 1.0 psf\n}',
+  'lining concrete {\n  n 0.013\n  permissible velocity 12 ft/s\n}',
+  'channel long {',
+  ...Array.from({ length: 14 }, (_, index) => {
+    const culvert = index % 5 === 3;
+    const extra = index === 6 ? '\n    flows { q10 = 18 cfs  q100 = 40 cfs }' : index === 9 ? '\n    criteria { freeboard 0.25 ft }' : '';
+    const bed = index === 11 ? 'inverts 30.2 ft to 29.6 ft' : `slope ${[0.3, 2.8, 0.6, 4.1, 0.2, 1.6, 0.4][index % 7]} %`;
+    return `  reach r${index} {\n    section ${culvert ? 'culvert' : 'ditch'}\n    lining ${culvert ? 'concrete' : 'grass'}\n    ${bed}\n    length ${120 + ((index * 37) % 160)} ft${extra}\n  }`;
+  }),
+  '  outlet free fall',
+  '}',
 ].join('\n');
 
 type Edit =
@@ -87,7 +112,11 @@ function withoutVersion(analysis: DesignAnalysis): Omit<DesignAnalysis, 'version
 }
 
 const samples = sampleTexts();
-const designs: Record<string, string> = { ...Object.fromEntries(Object.entries(samples).filter(([name]) => name !== 'linings.runnel')), 'three-channels.runnel': THREE_CHANNELS };
+const designs: Record<string, string> = {
+  ...Object.fromEntries(Object.entries(samples).filter(([name]) => name !== 'linings.runnel')),
+  'three-channels.runnel': THREE_CHANNELS,
+  'long-channel.runnel': LONG_CHANNEL,
+};
 
 describe('the analysis after an edit', () => {
   for (const [design, designText] of Object.entries(designs)) {
@@ -129,6 +158,31 @@ describe('the analysis after an edit', () => {
     expect(moved.channels.some((channel, index) => channel === after.channels[index])).toBe(false);
   });
 
+  it('takes over the reaches of an edited channel whose inputs and share of the profile did not change, and only those', async () => {
+    const editor = await LspWorkspace.create();
+    const [document] = await editor.set({ 'long.runnel': LONG_CHANNEL });
+    const before = analyzeDocument(document!, NO_CRITERIA_DEFAULTS).channels[0]!;
+    // The concrete culvert r8 from 2.8 % to 0.5 %, still steep at both flows: critical depth still stands at its head
+    // (the break from the mild r7), so nothing above it changes; its supercritical flow leaves it at a new depth, so
+    // the jump in the mild r9 below moves; critical depth at the break into the steep r10 holds everything below.
+    const editedText = LONG_CHANNEL.replace(/(reach r8 \{[^}]*?slope )2\.8 %/, '$10.5 %');
+    expect(editedText).not.toBe(LONG_CHANNEL);
+    const [edited] = await editor.set({ 'long.runnel': editedText });
+    const analysis = analyzeDocument(edited!, NO_CRITERIA_DEFAULTS);
+    const after = analysis.channels[0]!;
+    expect(after).not.toBe(before);
+    const takenOver = after.reaches.map((reach, index) => reach === before.reaches[index]);
+    // r9's own text is unchanged: it is computed again because its share of the profile changed.
+    expect(takenOver).toEqual([true, true, true, true, true, true, true, true, false, false, true, true, true, true]);
+    // A reach is taken over only where its profile at every flow is unchanged, value for value.
+    after.reaches.forEach((reach, index) => {
+      if (takenOver[index]) expect(reach.flows.map((flow) => flow.profile)).toEqual(before.reaches[index]!.flows.map((flow) => flow.profile));
+    });
+    const fresh = await LspWorkspace.create();
+    const [same] = await fresh.set({ 'long.runnel': editedText });
+    expect(withoutVersion(analysis)).toEqual(withoutVersion(analyzeDocument(same!, NO_CRITERIA_DEFAULTS)));
+  });
+
   it('computes every channel again when the criteria defaults from settings change', async () => {
     // Only the reaches of a design silent on a criterion take the setting: strip the design's criteria block.
     const silent = THREE_CHANNELS.replace('criteria {\n  freeboard 0.5 ft\n}\n', '');
@@ -144,7 +198,7 @@ describe('the analysis after an edit', () => {
     expect(after.findings.some((finding) => finding.code === 'freeboard-below-required')).toBe(true);
   });
 
-  it("lists each channel's references from the linked document as a walk of the channel's tree finds them", async () => {
+  it("lists each channel's and each reach's references from the linked document as a walk of its tree finds them", async () => {
     const editor = await LspWorkspace.create();
     const documents = await editor.set({ ...sampleTexts(), 'three.runnel': THREE_CHANNELS });
     let channels = 0;
@@ -156,6 +210,10 @@ describe('the analysis after an edit', () => {
         const walked = AstUtils.streamAst(channel).flatMap((node) => AstUtils.streamReferences(node)).toArray();
         expect(walked.length).toBeGreaterThan(0);
         expect((listed?.get(channel) ?? []).map((reference) => reference.$refText)).toEqual(walked.map((info) => info.reference.$refText));
+        for (const reach of (channel.members ?? []).filter(isReach)) {
+          const inReach = AstUtils.streamAst(reach).flatMap((node) => AstUtils.streamReferences(node)).toArray();
+          expect((listed?.get(reach) ?? []).map((reference) => reference.$refText)).toEqual(inReach.map((info) => info.reference.$refText));
+        }
       }
     }
     expect(channels).toBeGreaterThanOrEqual(5);
