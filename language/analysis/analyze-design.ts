@@ -62,7 +62,7 @@ import {
   type RememberedFlow,
   type RememberedReach,
 } from './channel-memo.js';
-import { reachDischarges, resolveReachInputs, sameData, type ReachDischarge, type ReachInputs, type ReachProfileShare } from './reach-inputs.js';
+import { reachDischarges, resolveReachInputs, sameDischarge, sameProfileShare, type ReachDischarge, type ReachInputs, type ReachProfileShare } from './reach-inputs.js';
 import { profileFindingDrafts, type ReachForFindings } from './profile-findings.js';
 import type {
   ChannelResult,
@@ -73,6 +73,7 @@ import type {
   FlowResult,
   IncompleteReach,
   ProfileSegmentResult,
+  SourceLocation,
   ReachResult,
   Severity,
   StateResult,
@@ -306,6 +307,7 @@ function analyzeChannel(
   const incompleteReaches: IncompleteReach[] = [];
   const reachEntries: (readonly [string, RememberedReach])[] = [];
   const leftOut: string[] = [];
+  const sourceLocations = new Map<AstNode, SourceLocation>();
   for (const member of channel.members ?? []) {
     if (!isReach(member)) continue;
     const key = reachKeyOf(member);
@@ -317,7 +319,7 @@ function analyzeChannel(
       if (key !== undefined) reachEntries.push([key, remembered ?? { resolution, flows: [], result: null }]);
       continue;
     }
-    analysed.push({ inputs: resolution.inputs, discharges: reachDischarges(flows, dischargesByReach.get(member)), key, remembered });
+    analysed.push({ inputs: resolution.inputs, discharges: reachDischarges(flows, dischargesByReach.get(member), sourceLocations), key, remembered });
   }
 
   // One profile per design flow through the whole channel.
@@ -364,7 +366,7 @@ function analyzeChannel(
         maximumDepthClass: reachProfile === null ? null : profileClassAt(segmentsByFlow.get(discharge.flowName)?.get(inputs.reachName), reachProfile.maximumDepthStation_m),
       };
       const before = remembered?.flows[flowIndex];
-      if (before !== undefined && sameData(before.discharge, discharge) && sameData(before.share, share)) return before;
+      if (before !== undefined && sameDischarge(before.discharge, discharge) && sameProfileShare(before.share, share)) return before;
       allTakenOver = false;
       return { discharge, share, result: analyzeFlow(inputs, discharge, share, formatter) };
     });

@@ -323,7 +323,11 @@ function computeFlowProfile(
     };
     if (failure.reason === 'conduit-surcharged' && failure.reachIndex !== null && failure.reachIndex + 1 < plan.reaches.length) {
       const below = computeFlowProfile(plan, engineReaches, datum, flowName, reuse, failure.reachIndex + 1);
-      if (below.failure === null) return { ...below, model: { ...below.model, failure: modelFailure(plan, failure) }, failure };
+      if (below.failure === null) {
+        // The model's points are read through a getter that builds them (assemble): copy it, do not call it.
+        const model = Object.defineProperties({}, { ...Object.getOwnPropertyDescriptors(below.model), failure: { value: modelFailure(plan, failure), enumerable: true } }) as ChannelFlowProfile;
+        return { ...below, model, failure };
+      }
     }
     return fail(failure);
   };

@@ -4,6 +4,7 @@
  * locations. No syntax node is kept, so that a reach remembered between analyses (channel-memo.ts) does not keep an
  * old version's syntax tree alive.
  */
+import type { AstNode } from 'langium';
 import type { Reach } from '../generated/ast.js';
 import { fullFlowCapacityM3s, manningDischargeM3s } from '../hydraulics/index.js';
 import type { UnitSystem } from '../units/units.js';
@@ -135,7 +136,12 @@ export function resolveReachInputs(
 }
 
 /** The discharges of one reach in the order of the design's flows (flows without a discharge left out). */
-export function reachDischarges(flows: readonly { readonly name?: string }[], discharges: ReadonlyMap<unknown, FlowDischarge> | undefined): ReachDischarge[] {
+export function reachDischarges(
+  flows: readonly { readonly name?: string }[],
+  discharges: ReadonlyMap<unknown, FlowDischarge> | undefined,
+  /** Locations already made, by source node: most reaches share their discharges' sources. */
+  locations: Map<AstNode, SourceLocation>,
+): ReachDischarge[] {
   const result: ReachDischarge[] = [];
   if (discharges === undefined) return result;
   for (const flow of flows) {
@@ -145,10 +151,19 @@ export function reachDischarges(flows: readonly { readonly name?: string }[], di
       flowName: discharge.flow.name ?? '',
       description: discharge.flow.description ?? null,
       dischargeM3s: discharge.dischargeM3s,
-      flowLocation: locationOf(discharge.source),
+      flowLocation: locationOnce(discharge.source, locations),
     });
   }
   return result;
+}
+
+function locationOnce(node: AstNode, locations: Map<AstNode, SourceLocation>): SourceLocation {
+  let location = locations.get(node);
+  if (location === undefined) {
+    location = locationOf(node);
+    locations.set(node, location);
+  }
+  return location;
 }
 
 function bankfullCapacityM3s(section: ResolvedSection, lining: ResolvedLining, slope: number): number | null {
@@ -159,6 +174,46 @@ function bankfullCapacityM3s(section: ResolvedSection, lining: ResolvedLining, s
   // Dimensions near the limits of double precision overflow here: no capacity rather than Infinity or NaN.
   return capacityM3s !== undefined && Number.isFinite(capacityM3s) ? capacityM3s : null;
 }
+
+/** Equal discharges, set at the same place. */
+export function sameDischarge(left: ReachDischarge, right: ReachDischarge): boolean {
+  const a = left.flowLocation;
+  const b = right.flowLocation;
+  return (
+    left.flowName === right.flowName &&
+    left.description === right.description &&
+    Object.is(left.dischargeM3s, right.dischargeM3s) &&
+    a.uri === b.uri &&
+    a.range.start.line === b.range.start.line &&
+    a.range.start.character === b.range.start.character &&
+    a.range.end.line === b.range.end.line &&
+    a.range.end.character === b.range.end.character
+  );
+}
+
+/** Equal shares of the profile, value for value (sameData, with the common cases first). */
+export function sameProfileShare(left: ReachProfileShare, right: ReachProfileShare): boolean {
+  if (left.maximumDepthClass !== right.maximumDepthClass) return false;
+  if (left.drafts.length !== right.drafts.length || (left.drafts.length > 0 && !sameData(left.drafts, right.drafts))) return false;
+  const a = left.reachProfile;
+  const b = right.reachProfile;
+  if (a === b) return true;
+  if (a === null || b === null) return false;
+  for (const field of REACH_PROFILE_FIELDS) if (!sameData(a[field], b[field])) return false;
+  return true;
+}
+
+/** Every field of a reach's profile; the type makes a field added to the model appear here. */
+const REACH_PROFILE_FIELDS = Object.keys({
+  startStation_m: true,
+  endStation_m: true,
+  maximumDepth_m: true,
+  maximumDepthStation_m: true,
+  minimumFreeboard_m: true,
+  minimumFreeboardStation_m: true,
+  overtoppedRanges: true,
+  profileClasses: true,
+} satisfies Record<keyof ReachFlowProfile, true>) as (keyof ReachFlowProfile)[];
 
 /**
  * Equal plain data (numbers bit for bit, NaN equal to NaN; strings; arrays and plain objects member for member):

@@ -323,6 +323,8 @@ channel c {
     const profile = analysis.channels[0]!.profiles![0]!;
     expect(profile.computed).toBe(true);
     expect(profile.failure?.reason).toBe('conduit-surcharged');
+    // The points of the part below are still built only when read, as for any computed profile (analysis speed).
+    expect(Object.getOwnPropertyDescriptor(profile, 'points')?.get).toBeTypeOf('function');
     expect(profile.points[0]?.station_m).toBeCloseTo(50, 9);
     const outfall = flowOf(reachOf(analysis, 'c', 'outfall'), 'q').profile;
     // Level pool: at least 101.0 - 100.0 m deep at the head of the outfall reach.

@@ -11,41 +11,48 @@
  * not with elevations (junction.ts), so no march depends on where the bed stands, only on its shape.
  *
  * Keys are exact: the same section object (callers keep one object per unchanged section), the same numbers bit
- * for bit, the same subcritical march object for the supercritical one it is compared with. Equal inputs give
- * equal results, so a profile computed with reuse equals the profile computed without, field for field
+ * for bit (Object.is), the same subcritical march object for the supercritical one it is compared with. Equal inputs
+ * give equal results, so a profile computed with reuse equals the profile computed without, field for field
  * (test/hydraulics/profile/reach-reuse.test.ts). A march is remembered with the steps it took and taken over only
  * when the step budget left covers them, so a computation that would run out of steps still does.
  *
- * Memory: a generation is one analysis; entries used in the current or the previous generation are kept.
+ * Lookup: every computation is filed under an object it depends on (the section for a flow description, the reach's
+ * flow description for a march or a junction) and one of its numbers, then found among the few filed there by
+ * comparing its other inputs one by one. Building a text key of every input instead cost more than a third of the
+ * engine's time on an edit of a 50-reach channel (number-to-text conversions and hashing of long keys).
+ *
+ * Memory: a generation is one analysis; entries used in the current or the previous generation are kept, older ones
+ * are dropped when their list is next searched, and a list goes with the object it is filed under.
  */
 import type { JunctionOutcome } from './junction.js';
 import type { ReachFlow, ReachFlowResult } from './reach-flow.js';
 import type { SectionGeometry } from '../sections/section-geometry.js';
 import type { MarchSettings, StepBudget } from './standard-step.js';
 
-/** A remembered computation and the profile steps it took. */
-interface RememberedMarch<T> {
-  readonly value: T;
+/** A remembered computation: its inputs besides the object and number it is filed under, and the steps it took. */
+interface Entry {
+  /** The number it is filed under, exactly (the list's Map key does not tell 0 from -0). */
+  readonly number: number;
+  readonly inputs: readonly unknown[];
+  readonly value: unknown;
   readonly steps: number;
+  generation: number;
 }
 
 export class ProfileReuse {
   /** Marches and flow descriptions taken over and computed since this object was made (for tests and benchmarks). */
   readonly counts = { reused: 0, computed: 0 };
-  private current = new Map<string, unknown>();
-  private previous = new Map<string, unknown>();
-  private readonly ids = new WeakMap<object, number>();
-  private nextId = 0;
+  private readonly filed = new WeakMap<object, Map<number, Entry[]>>();
+  private generation = 0;
 
   /** Starts a generation: entries not used since the previous one are dropped. */
   startGeneration(): void {
-    this.previous = this.current;
-    this.current = new Map();
+    this.generation++;
   }
 
   /** The flow description of a reach (describeReachFlow), computed once per section object and numbers. */
   reachFlow(section: SectionGeometry, manningN: number, bedSlope: number, dischargeM3s: number, alpha: number, compute: () => ReachFlowResult): ReachFlowResult {
-    return this.remember(`flow|${this.idOf(section)}|${manningN}|${bedSlope}|${dischargeM3s}|${alpha}`, compute);
+    return this.remember(section, bedSlope, ['flow', manningN, dischargeM3s, alpha], compute);
   }
 
   /**
@@ -53,59 +60,74 @@ export class ProfileReuse {
    * balance computes it; nothing else of the elevations enters it.
    */
   junction(knownFlow: ReachFlow, knownDepthM: number, unknownFlow: ReachFlow, dropM: number, branch: string, lossCoefficient: number, compute: () => JunctionOutcome): JunctionOutcome {
-    return this.remember(`junction|${this.idOf(knownFlow)}|${knownDepthM}|${this.idOf(unknownFlow)}|${dropM}|${branch}|${lossCoefficient}`, compute);
+    return this.remember(knownFlow, knownDepthM, ['junction', unknownFlow, dropM, branch, lossCoefficient], compute);
   }
 
-  private remember<T>(key: string, compute: () => T): T {
-    const remembered = this.get<T>(key);
-    if (remembered !== undefined) {
+  private remember<T>(owner: object, number: number, inputs: readonly unknown[], compute: () => T): T {
+    const found = this.find(owner, number, inputs);
+    if (found !== undefined) {
       this.counts.reused++;
-      return remembered;
+      return found.value as T;
     }
     this.counts.computed++;
-    const result = compute();
-    this.current.set(key, result);
-    return result;
+    const value = compute();
+    this.file(owner, number, inputs, value, 0);
+    return value;
   }
 
   /**
-   * A march of one reach, by a key the caller builds from every other input (reachMarchKey plus its own numbers);
+   * A march of one reach from `startDepthM`: `inputs` are every other input (marchInputs, then the caller's own);
    * `keep` says whether the result may be remembered (not when it ran out of steps).
    */
-  march<T>(key: string, budget: StepBudget, compute: () => T, keep: (value: T) => boolean): T {
-    const remembered = this.get<RememberedMarch<T>>(key);
-    if (remembered !== undefined && budget.remaining >= remembered.steps) {
-      budget.remaining -= remembered.steps;
+  march<T>(flow: ReachFlow, startDepthM: number, inputs: readonly unknown[], budget: StepBudget, compute: () => T, keep: (value: T) => boolean): T {
+    const found = this.find(flow, startDepthM, inputs);
+    if (found !== undefined && budget.remaining >= found.steps) {
+      budget.remaining -= found.steps;
       this.counts.reused++;
-      return remembered.value;
+      return found.value as T;
     }
     this.counts.computed++;
     const before = budget.remaining;
     const value = compute();
-    if (keep(value)) this.current.set(key, { value, steps: before - budget.remaining });
+    if (keep(value)) this.file(flow, startDepthM, inputs, value, before - budget.remaining);
     return value;
   }
 
-  /** The part of a march key every march of one reach shares: its flow object, length and step settings. */
-  reachMarchKey(flow: ReachFlow, lengthM: number, settings: MarchSettings): string {
-    return `${this.idOf(flow)}|${lengthM}|${settings.maximumStepLengthM}|${settings.maximumDepthChangeRatio}`;
-  }
-
-  /** A number standing for one object while it lives (objects, not values: the caller keeps objects stable). */
-  idOf(object: object): number {
-    let id = this.ids.get(object);
-    if (id === undefined) {
-      id = this.nextId++;
-      this.ids.set(object, id);
+  private find(owner: object, number: number, inputs: readonly unknown[]): Entry | undefined {
+    const list = this.filed.get(owner)?.get(number);
+    if (list === undefined) return undefined;
+    let found: Entry | undefined;
+    let live = 0;
+    for (const entry of list) {
+      if (entry.generation < this.generation - 1) continue;
+      list[live++] = entry;
+      if (found === undefined && Object.is(entry.number, number) && sameInputs(entry.inputs, inputs)) found = entry;
     }
-    return id;
+    list.length = live;
+    if (found !== undefined) found.generation = this.generation;
+    return found;
   }
 
-  private get<T>(key: string): T | undefined {
-    if (this.current.has(key)) return this.current.get(key) as T;
-    if (!this.previous.has(key)) return undefined;
-    const value = this.previous.get(key) as T;
-    this.current.set(key, value);
-    return value;
+  private file(owner: object, number: number, inputs: readonly unknown[], value: unknown, steps: number): void {
+    let byNumber = this.filed.get(owner);
+    if (byNumber === undefined) {
+      byNumber = new Map();
+      this.filed.set(owner, byNumber);
+    }
+    const entry: Entry = { number, inputs, value, steps, generation: this.generation };
+    const list = byNumber.get(number);
+    if (list === undefined) byNumber.set(number, [entry]);
+    else list.push(entry);
   }
+}
+
+/** The inputs every march of one reach shares besides its flow description: its length and step settings. */
+export function marchInputs(kind: 'subcritical' | 'supercritical', lengthM: number, settings: MarchSettings): unknown[] {
+  return [kind, lengthM, settings.maximumStepLengthM, settings.maximumDepthChangeRatio];
+}
+
+function sameInputs(left: readonly unknown[], right: readonly unknown[]): boolean {
+  if (left.length !== right.length) return false;
+  for (let index = 0; index < left.length; index++) if (!Object.is(left[index], right[index])) return false;
+  return true;
 }

@@ -8,7 +8,7 @@ import { invertElevationAt, type ResolvedReach, type SubcriticalTrace } from './
 import { fixed } from './controls.js';
 import { solveJunctionReusing } from './junction.js';
 import type { ProfileNote, ProfileFailureReason } from './profile-types.js';
-import type { ProfileReuse } from './reach-reuse.js';
+import { marchInputs, type ProfileReuse } from './reach-reuse.js';
 import { marchAlongReach, type MarchEnd, type StepBudget } from './standard-step.js';
 
 export interface JunctionRecord {
@@ -156,8 +156,7 @@ function subcriticalMarch(reach: ResolvedReach, startDepthM: number, budget: Ste
     return { end: march.end, stationsM: march.stationsM.reverse(), depthsM: march.depthsM.reverse() };
   };
   if (reuse === undefined) return compute();
-  const key = `subcritical|${reuse.reachMarchKey(reach.flow, reach.lengthM, reach.march)}|${startDepthM}`;
-  return reuse.march(key, budget, compute, (march) => march.end !== 'step-limit');
+  return reuse.march(reach.flow, startDepthM, marchInputs('subcritical', reach.lengthM, reach.march), budget, compute, (march) => march.end !== 'step-limit');
 }
 
 /** A reach with no known free-surface subcritical depth anywhere (above a surcharged conduit). */

@@ -19,7 +19,7 @@ import { JUMP_LOCATION_TOLERANCE_M } from './profile-defaults.js';
 import type { HydraulicJump, JumpPlacement, ProfileFailureReason, ProfileNote } from './profile-types.js';
 import { reachSpecificEnergyM, reachSpecificForceM3 } from './reach-flow.js';
 import { solveBracketedRoot } from './scalar-solvers.js';
-import type { ProfileReuse } from './reach-reuse.js';
+import { marchInputs, type ProfileReuse } from './reach-reuse.js';
 import { marchAlongReach, solveStandardStep, type StepBudget } from './standard-step.js';
 
 /** The supercritical profile within one reach: from the reach's upstream end to where it ends. */
@@ -163,7 +163,19 @@ export function runSupercriticalPass(input: SupercriticalPassInput): Supercritic
         reuse === undefined
           ? march()
           : reuse.march(
-              `supercritical|${reuse.reachMarchKey(flow, reach.lengthM, reach.march)}|${reuse.idOf(trace.stationsM)}|${trace.noSubcriticalDepthAboveM}|${trace.noSubcriticalDepthReason}|${depthM}|${fromReachIndex}|${acrossJunction}|${reach.index}|${reach.startStationM}|${reach.input.name}`,
+              flow,
+              depthM,
+              [
+                ...marchInputs('supercritical', reach.lengthM, reach.march),
+                trace.stationsM,
+                trace.noSubcriticalDepthAboveM,
+                trace.noSubcriticalDepthReason,
+                fromReachIndex,
+                acrossJunction,
+                reach.index,
+                reach.startStationM,
+                reach.input.name,
+              ],
               budget,
               march,
               (result) => result.converged,

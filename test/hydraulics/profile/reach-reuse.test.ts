@@ -140,4 +140,32 @@ describe('profiles computed with reach reuse equal profiles computed from nothin
     expect(result).toEqual(computeChannelProfile(starved));
     expect(result.converged).toBe(false);
   });
+
+  it('keeps what the current or the previous computation used, and drops what neither did', () => {
+    // One flow description per generation of use: computed, taken over the next two times in a row, then left
+    // unused for a generation and computed again.
+    const reuse = new ProfileReuse();
+    const section = SECTIONS[0] as ProfileReachInput['section'];
+    let computed = 0;
+    const describe = (): never => {
+      computed++;
+      return { converged: false, reason: 'invalid-input', message: 'counted' } as never;
+    };
+    const ask = (slope: number): void => void reuse.reachFlow(section, 0.03, slope, 1, 1, describe);
+    ask(0.001);
+    reuse.startGeneration();
+    ask(0.001);
+    reuse.startGeneration();
+    ask(0.001);
+    expect(computed).toBe(1);
+    reuse.startGeneration();
+    ask(0.002);
+    reuse.startGeneration();
+    ask(0.001);
+    expect(computed).toBe(3);
+    // Exact numbers: -0 is not 0 (a horizontal bed written either way is looked up apart).
+    ask(-0);
+    ask(0);
+    expect(computed).toBe(5);
+  });
 });
