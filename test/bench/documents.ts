@@ -37,12 +37,14 @@ const SIZES = (process.env.RUNNEL_BENCH_SIZES?.split(",").map(Number) ?? [50, 50
 const REACHES_PER_CHANNEL = 50;
 /**
  * Edits timed and edits before them, by design size. The first edits of a session run before the JIT has compiled
- * the per-edit code (each edit calls most of it once per reach), and on this shared two-processor machine a median
- * of 15 moved by a fifth between runs; 31 after 30 settle both. The 5,000-reach design takes about a second per
+ * the per-edit code and while the heap is still growing: at 50 reaches the medians of successive windows of 31
+ * edits from the first fell from 12.4 to 8.5, 7.4 and then about 4 ms of analysis (parse and link from 9.7 to
+ * about 5 ms) and stayed there; they settle after about 90 edits, a few minutes of typing. So 31 are timed after 90
+ * (30 had been used before, which timed the end of the warm-up). The 5,000-reach design takes about a second per
  * edit, so it keeps 15 after 15.
  */
 function editCounts(reaches: number): { readonly timed: number; readonly warmUp: number } {
-  return reaches >= 5_000 ? { timed: 15, warmUp: 15 } : { timed: 31, warmUp: 30 };
+  return reaches >= 5_000 ? { timed: 15, warmUp: 15 } : { timed: 31, warmUp: 90 };
 }
 const TIMED_HOVERS = 200;
 
