@@ -66,8 +66,11 @@ export function niceTicks(min: number, max: number, targetCount: number): { read
   const step = niceStep(max - min, targetCount);
   const values: number[] = [];
   const decimals = tickDecimals(step);
-  for (let multiple = Math.ceil(min / step - 1e-9); multiple * step <= max + step * 1e-9 && values.length < 40; multiple++) {
-    values.push(Number((multiple * step).toFixed(decimals)));
+  for (let multiple = Math.ceil(min / step - 1e-9); values.length < 40; multiple++) {
+    const value = multiple * step;
+    // Compared by difference: max plus a tolerance overflows to Infinity near the largest double (a reach 1e308 m long).
+    if (!Number.isFinite(value) || value - max > step * 1e-9) break;
+    values.push(Number(value.toFixed(decimals)));
   }
   return { values, step };
 }

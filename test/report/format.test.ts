@@ -5,7 +5,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { formatNumber } from '../../language/analysis/format-quantity.js';
-import { px } from '../../language/report/svg-scale.js';
+import { niceTicks, px } from '../../language/report/svg-scale.js';
 import { formatElevation, formatFixed, formatQuantity, formatSignificant, formatTimestampUtc, MISSING_VALUE } from '../../language/report/format.js';
 
 describe('report number formatting', () => {
@@ -55,5 +55,23 @@ describe('drawing coordinates', () => {
     // 1e307 times 100 overflows a double: the clamp comes first.
     expect(px(1.7e307)).toBe('1000000');
     expect(px(-1.7976931348623157e308)).toBe('-1000000');
+  });
+
+  it('property: axis ticks are finite round values within the axis, at most 40, for any finite axis', () => {
+    fc.assert(
+      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 1, max: 12 }), (a, b, count) => {
+        const [min, max] = a <= b ? [a, b] : [b, a];
+        const { values, step } = niceTicks(min, max, count);
+        expect(values.length).toBeLessThanOrEqual(40);
+        for (const value of values) {
+          expect(Number.isFinite(value)).toBe(true);
+          // Tick values are printed to at most 8 decimals (tickDecimals), so they may stand up to 5e-9 past the end.
+          if (max > min) expect(value - max).toBeLessThanOrEqual(Math.abs(step) * 1e-6 + 5e-9 + Math.abs(max) * 1e-12);
+        }
+      }),
+      { numRuns: 2000 },
+    );
+    // The longest channel a double can hold: no tick beyond it overflows to Infinity.
+    expect(niceTicks(0, 1.7976931348623157e308, 5).values.every(Number.isFinite)).toBe(true);
   });
 });
