@@ -500,11 +500,14 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
       profileClasses: [...summary.profileClasses],
     };
   });
-  const holdsJump = summaries.map((summary) => summary !== undefined && (summary.slopeClass === 'mild' || summary.slopeClass === 'horizontal' || summary.slopeClass === 'adverse'));
-  const holdingReachAtOrBelow = (originIndex: number): number | undefined => {
-    for (let index = Math.max(0, originIndex); index < holdsJump.length; index++) if (holdsJump[index]) return index;
-    return undefined;
-  };
+  // The first reach at or below each reach whose slope can hold a jump (not steep), found once from the outlet up.
+  const holdingAtOrBelow = new Array<number | undefined>(summaries.length);
+  for (let index = summaries.length - 1, below: number | undefined; index >= 0; index--) {
+    const summary = summaries[index];
+    if (summary !== undefined && (summary.slopeClass === 'mild' || summary.slopeClass === 'horizontal' || summary.slopeClass === 'adverse')) below = index;
+    holdingAtOrBelow[index] = below;
+  }
+  const holdingReachAtOrBelow = (originIndex: number): number | undefined => holdingAtOrBelow[Math.max(0, originIndex)];
 
   const jumps: PlacedJump[] = rawJumps.map(({ jump, reachIndex, originReachIndex, placement }) => {
     const holdingReachIndex = holdingReachAtOrBelow(originReachIndex);

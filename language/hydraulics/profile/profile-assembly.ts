@@ -209,9 +209,11 @@ export function assembleProfile(
 
   const table = new ProfilePointTable(reaches, localStationsM, depthsM, reachIndices, stepKinds, headLossesM, energyResidualsM);
   const segments = classifySegments(reaches, table, stepKinds);
-  // A reach's points are contiguous: each summary reads only its own slice.
+  // A reach's points are contiguous, and so are its segments (flow order): each summary reads only its own slices.
+  const segmentsOfReach = reaches.map((): ProfileSegment[] => []);
+  for (const segment of segments) segmentsOfReach[segment.reachIndex]?.push(segment);
   const summaries = reaches.map((reach, position) =>
-    summariseReach(reach, table, firstPointOfReach[position] ?? count, firstPointOfReach[position + 1] ?? count, segments),
+    summariseReach(reach, table, firstPointOfReach[position] ?? count, firstPointOfReach[position + 1] ?? count, segmentsOfReach[reach.index] ?? []),
   );
   return { converged: true, table, segments, reaches: summaries, maximumEnergyResidualM };
 }
@@ -327,8 +329,8 @@ function classifySegments(reaches: readonly ResolvedReach[], table: ProfilePoint
   return segments;
 }
 
-/** Summary of one reach from its points, table rows fromIndex up to (not including) toIndex. */
-function summariseReach(reach: ResolvedReach, table: ProfilePointTable, fromIndex: number, toIndex: number, segments: readonly ProfileSegment[]): ReachProfileSummary {
+/** Summary of one reach from its points, table rows fromIndex up to (not including) toIndex, and its own segments. */
+function summariseReach(reach: ResolvedReach, table: ProfilePointTable, fromIndex: number, toIndex: number, reachSegments: readonly ProfileSegment[]): ReachProfileSummary {
   const bankHeightM = reach.input.bankHeightM;
   let maximumDepthM = Number.NEGATIVE_INFINITY;
   let maximumDepthStationM = reach.startStationM;
@@ -366,8 +368,7 @@ function summariseReach(reach: ResolvedReach, table: ProfilePointTable, fromInde
   }
   if (openRangeFromM !== undefined && previousIndex >= 0) overtoppedRanges.push({ fromStationM: openRangeFromM, toStationM: table.stationAt(previousIndex) });
   const profileClasses: SegmentClass[] = [];
-  for (const segment of segments) {
-    if (segment.reachIndex !== reach.index) continue;
+  for (const segment of reachSegments) {
     if (profileClasses[profileClasses.length - 1] !== segment.profileClass) profileClasses.push(segment.profileClass);
   }
   const flow = reach.flow;
