@@ -61,7 +61,7 @@ export function computeChannelProfile(input: ChannelProfileInput): ChannelProfil
   });
   if (!supercritical.converged) return supercritical;
 
-  const assembled = assembleProfile(reaches, subcritical.traces, subcritical.junctions, supercritical.pieces, supercritical.jumps, lossCoefficient);
+  const assembled = assembleProfile(reaches, subcritical.traces, subcritical.junctions, supercritical.pieces, supercritical.jumps, lossCoefficient, input.reuse);
   if (!assembled.converged) {
     const reachIndex = assembled.surchargedReachIndex;
     return surchargeFailure(reaches, subcritical.surcharge ?? { reachIndex, stationM: (reaches[reachIndex] as ResolvedReach).startStationM });

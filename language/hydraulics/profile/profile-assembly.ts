@@ -23,11 +23,11 @@ import type {
   ProfileStepKind,
   ReachProfileSummary,
   SegmentClass,
-  StationRange,
 } from './profile-types.js';
 import { frictionSlope, type ReachFlow } from './reach-flow.js';
 import type { JunctionRecord } from './subcritical-pass.js';
 import type { SupercriticalPiece } from './supercritical-pass.js';
+import type { ProfileReuse } from './reach-reuse.js';
 
 export type AssemblyResult = ({ readonly converged: true } & AssembledProfile) | { readonly converged: false; readonly surchargedReachIndex: number };
 
@@ -37,6 +37,11 @@ export interface AssembledProfile {
   readonly reaches: ReachProfileSummary[];
   readonly maximumEnergyResidualM: number;
 }
+
+/** Step kinds as stored in the columns: a step's code is its index here. */
+const STEP_KINDS: readonly ProfileStepKind[] = ['gradually-varied', 'junction', 'junction-critical-control', 'hydraulic-jump'];
+const GRADUALLY_VARIED_STEP = STEP_KINDS.indexOf('gradually-varied');
+const JUMP_STEP = STEP_KINDS.indexOf('hydraulic-jump');
 
 /** What joins a point to the one before it within the same reach. */
 type PointJoin = 'step' | 'jump';
@@ -52,8 +57,8 @@ export class ProfilePointTable implements ProfilePointColumns {
     private readonly localStationsM: Float64Array,
     private readonly depthsM: Float64Array,
     private readonly reachIndices: Int32Array,
-    /** stepKinds[i] joins point i to point i + 1; so do headLossesM[i] and energyResidualsM[i] (NaN: no balance imposed). */
-    private readonly stepKinds: readonly ProfileStepKind[],
+    /** stepKinds[i] (STEP_KINDS codes) joins point i to point i + 1; so do headLossesM[i] and energyResidualsM[i] (NaN: no balance imposed). */
+    private readonly stepKinds: Uint8Array,
     private readonly headLossesM: Float64Array,
     private readonly energyResidualsM: Float64Array,
   ) {}
@@ -96,7 +101,7 @@ export class ProfilePointTable implements ProfilePointColumns {
     for (let index = 0; index < steps.length; index++) {
       const residualM = this.energyResidualsM[index] ?? Number.NaN;
       steps[index] = {
-        kind: this.stepKinds[index] ?? 'gradually-varied',
+        kind: STEP_KINDS[this.stepKinds[index] ?? 0] ?? 'gradually-varied',
         upstreamPointIndex: index,
         downstreamPointIndex: index + 1,
         lengthM: this.stationAt(index + 1) - this.stationAt(index),
@@ -119,103 +124,261 @@ export function assembleProfile(
   pieces: readonly (SupercriticalPiece | undefined)[],
   jumps: readonly HydraulicJump[],
   lossCoefficient: number,
+  reuse?: ProfileReuse,
 ): AssemblyResult {
-  // Two passes over the reaches' points: count them (and find a surcharge), then fill columns of that length.
+  // Each reach's share in its own frame, taken over with the marches it is made from (reach-reuse.ts).
+  const parts: ReachAssembly[] = [];
   let count = 0;
   for (const reach of reaches) {
-    const outcome = visitReachPoints(reach, traces[reach.index] as SubcriticalTrace, pieces[reach.index], () => count++);
-    if (outcome === 'surcharged') return { converged: false, surchargedReachIndex: reach.index };
+    const trace = traces[reach.index] as SubcriticalTrace;
+    const piece = pieces[reach.index];
+    const assemble = (): ReachAssembly => assembleReach(reach, trace, piece);
+    const part = reuse === undefined ? assemble() : reuse.reachAssembly(trace, piece, reach.flow, reach.lengthM, reach.input.bankHeightM, assemble);
+    if (part.surcharged) return { converged: false, surchargedReachIndex: reach.index };
+    parts.push(part);
+    count += part.depthsM.length;
   }
+
   const localStationsM = new Float64Array(count);
   const depthsM = new Float64Array(count);
   const reachIndices = new Int32Array(count);
-  const joins = new Array<PointJoin>(count);
-  const firstPointOfReach: number[] = [];
-  let filled = 0;
-  for (const reach of reaches) {
-    firstPointOfReach.push(filled);
-    visitReachPoints(reach, traces[reach.index] as SubcriticalTrace, pieces[reach.index], (localStationM, depthM, join) => {
-      localStationsM[filled] = localStationM;
-      depthsM[filled] = depthM;
-      reachIndices[filled] = reach.index;
-      joins[filled] = join;
-      filled++;
-    });
-  }
-
   const stepCount = Math.max(count - 1, 0);
-  const stepKinds = new Array<ProfileStepKind>(stepCount);
+  const stepKinds = new Uint8Array(stepCount);
+  const headLossesM = new Float64Array(stepCount);
+  const energyResidualsM = new Float64Array(stepCount);
+  const segments: ProfileSegment[] = [];
+  const summaries: ReachProfileSummary[] = [];
+  let maximumEnergyResidualM = 0;
+  let filled = 0;
+  let lastReach: ResolvedReach | undefined;
+  // Reaches with a jump at their head (the foot of a drop above them).
+  const jumpAtHead = new Set(jumps.filter((jump) => jump.placement === 'at-junction').map((jump) => jump.reachIndex));
+  for (let position = 0; position < reaches.length; position++) {
+    const reach = reaches[position] as ResolvedReach;
+    const part = parts[position] as ReachAssembly;
+    const pointCount = part.depthsM.length;
+    localStationsM.set(part.localStationsM, filled);
+    depthsM.set(part.depthsM, filled);
+    reachIndices.fill(reach.index, filled, filled + pointCount);
+    if (pointCount > 0 && filled > 0 && lastReach !== undefined) {
+      // The step from the last point above (another reach) to this reach's first point, in elevations.
+      const step = joiningStep(lastReach, localStationsM[filled - 1] ?? 0, depthsM[filled - 1] ?? 0, reach, part, junctions, pieces, jumpAtHead, lossCoefficient);
+      stepKinds[filled - 1] = STEP_KINDS.indexOf(step.kind);
+      headLossesM[filled - 1] = step.headLossM;
+      energyResidualsM[filled - 1] = step.energyResidualM ?? Number.NaN;
+      if (step.energyResidualM !== null) maximumEnergyResidualM = Math.max(maximumEnergyResidualM, Math.abs(step.energyResidualM));
+    }
+    stepKinds.set(part.stepKinds, filled);
+    headLossesM.set(part.headLossesM, filled);
+    energyResidualsM.set(part.energyResidualsM, filled);
+    maximumEnergyResidualM = Math.max(maximumEnergyResidualM, part.maximumEnergyResidualM);
+    const placed = placedShare(reach, part);
+    for (const segment of placed.segments) segments.push(segment);
+    summaries.push(placed.summary);
+    if (pointCount > 0) lastReach = reach;
+    filled += pointCount;
+  }
+  const table = new ProfilePointTable(reaches, localStationsM, depthsM, reachIndices, stepKinds, headLossesM, energyResidualsM);
+  return { converged: true, table, segments, reaches: summaries, maximumEnergyResidualM };
+}
+
+/**
+ * One reach's share of the profile in its own frame: stations from its upstream end, elevations from its upstream
+ * invert. It is made from the reach's marches (subcritical trace, supercritical piece) and its flow description
+ * only, so that an edit elsewhere, which may lift the whole bed above it or shift its stations, leaves it equal bit
+ * for bit and reach reuse can take it over with the marches.
+ */
+interface ReachAssembly {
+  /** The profile needs subcritical flow where the conduit would flow full (see visitReachPoints). */
+  readonly surcharged: boolean;
+  readonly localStationsM: Float64Array;
+  readonly depthsM: Float64Array;
+  /** How the reach's first point joins the point before it (a jump may land on a reach's first station). */
+  readonly firstJoin: PointJoin;
+  /** The steps between the reach's consecutive points (STEP_KINDS codes): stepKinds[i] joins points i and i + 1. */
+  readonly stepKinds: Uint8Array;
+  readonly headLossesM: Float64Array;
+  /** NaN where no balance is imposed. */
+  readonly energyResidualsM: Float64Array;
+  readonly maximumEnergyResidualM: number;
+  readonly segments: readonly { readonly fromLocalM: number; readonly toLocalM: number; readonly profileClass: SegmentClass }[];
+  readonly maximumDepthM: number;
+  readonly maximumDepthLocalM: number;
+  readonly minimumFreeboardM: number;
+  readonly minimumFreeboardLocalM: number;
+  readonly overtoppedLocal: readonly { readonly fromLocalM: number; readonly toLocalM: number }[];
+  /** The share placed in the channel the last time (placedShare), kept while the reach stays where it was. */
+  placed?: PlacedShare;
+}
+
+/** A reach's segments and summary in channel stations and elevations, and where the reach stood when they were made. */
+interface PlacedShare {
+  readonly reach: Pick<ResolvedReach, 'index' | 'startStationM' | 'upstreamInvertElevationM' | 'downstreamInvertElevationM'> & { readonly name: string };
+  readonly segments: readonly ProfileSegment[];
+  readonly summary: ReachProfileSummary;
+}
+
+/**
+ * The reach's share in channel stations and elevations: the same objects as last time when the reach has not moved
+ * (its upstream invert follows from the downstream one, the slope and the length, but is compared all the same).
+ */
+function placedShare(reach: ResolvedReach, part: ReachAssembly): PlacedShare {
+  const last = part.placed?.reach;
+  if (
+    last !== undefined &&
+    last.index === reach.index &&
+    last.name === reach.input.name &&
+    Object.is(last.startStationM, reach.startStationM) &&
+    Object.is(last.upstreamInvertElevationM, reach.upstreamInvertElevationM) &&
+    Object.is(last.downstreamInvertElevationM, reach.downstreamInvertElevationM)
+  ) {
+    return part.placed as PlacedShare;
+  }
+  const placed: PlacedShare = {
+    reach: {
+      index: reach.index,
+      name: reach.input.name,
+      startStationM: reach.startStationM,
+      upstreamInvertElevationM: reach.upstreamInvertElevationM,
+      downstreamInvertElevationM: reach.downstreamInvertElevationM,
+    },
+    segments: part.segments.map((segment) => ({
+      reachIndex: reach.index,
+      reachName: reach.input.name,
+      fromStationM: pointStationM(reach, segment.fromLocalM),
+      toStationM: pointStationM(reach, segment.toLocalM),
+      profileClass: segment.profileClass,
+      description: describeSegmentClass(segment.profileClass),
+    })),
+    summary: summaryOf(reach, part),
+  };
+  part.placed = placed;
+  return placed;
+}
+
+function assembleReach(reach: ResolvedReach, trace: SubcriticalTrace, piece: SupercriticalPiece | undefined): ReachAssembly {
+  const localStations: number[] = [];
+  const depths: number[] = [];
+  const joins: PointJoin[] = [];
+  const surcharged =
+    visitReachPoints(reach, trace, piece, (localStationM, depthM, join) => {
+      localStations.push(localStationM);
+      depths.push(depthM);
+      joins.push(join);
+    }) === 'surcharged';
+  const localStationsM = Float64Array.from(localStations);
+  const depthsM = Float64Array.from(depths);
+  const count = depthsM.length;
+  const flow = reach.flow;
+
+  // Steps inside the reach: heads from the reach's upstream invert (the bed falls bedSlope per metre).
+  const stepCount = Math.max(count - 1, 0);
+  const stepKinds = new Uint8Array(stepCount);
   const headLossesM = new Float64Array(stepCount);
   const energyResidualsM = new Float64Array(stepCount);
   let maximumEnergyResidualM = 0;
-  // Each point's friction slope and energy elevation serve the steps on both sides of it.
-  const reachOf = (index: number): ResolvedReach => reaches[reachIndices[index] ?? 0] as ResolvedReach;
-  let upstreamReach = count > 0 ? reachOf(0) : undefined;
-  let upstreamVelocityMs = upstreamReach === undefined ? 0 : pointVelocityMs(upstreamReach.flow, depthsM[0] ?? 0);
-  let upstreamEnergyM = upstreamReach === undefined ? 0 : pointEnergyElevationM(upstreamReach, localStationsM[0] ?? 0, depthsM[0] ?? 0, upstreamVelocityMs);
-  let upstreamFrictionSlope = upstreamReach === undefined ? 0 : frictionSlope(upstreamReach.flow, depthsM[0] ?? 0);
+  let upstreamEnergyM = count > 0 ? localEnergyM(reach, localStationsM[0] ?? 0, depthsM[0] ?? 0) : 0;
+  let upstreamFrictionSlope = count > 0 ? frictionSlope(flow, depthsM[0] ?? 0) : 0;
   for (let index = 1; index < count; index++) {
-    const previousReach = upstreamReach as ResolvedReach;
-    const downstreamReach = reachOf(index);
-    const downstreamDepthM = depthsM[index] ?? 0;
-    const downstreamLocalM = localStationsM[index] ?? 0;
-    const downstreamVelocityMs = pointVelocityMs(downstreamReach.flow, downstreamDepthM);
-    const downstreamEnergyM = pointEnergyElevationM(downstreamReach, downstreamLocalM, downstreamDepthM, downstreamVelocityMs);
-    const headDifferenceM = upstreamEnergyM - downstreamEnergyM;
-    let kind: ProfileStepKind;
-    let headLossM: number;
-    let energyResidualM: number | null;
-    const downstreamFrictionSlope = frictionSlope(downstreamReach.flow, downstreamDepthM);
+    const depthM = depthsM[index] ?? 0;
+    const energyM = localEnergyM(reach, localStationsM[index] ?? 0, depthM);
+    const downstreamFrictionSlope = frictionSlope(flow, depthM);
+    const headDifferenceM = upstreamEnergyM - energyM;
     if (joins[index] === 'jump') {
-      kind = 'hydraulic-jump';
-      headLossM = headDifferenceM;
-      energyResidualM = null;
-    } else if (previousReach.index === downstreamReach.index) {
-      // Standard step: friction loss from the arithmetic mean of the end friction slopes.
-      const lengthM = pointStationM(downstreamReach, downstreamLocalM) - pointStationM(previousReach, localStationsM[index - 1] ?? 0);
-      kind = 'gradually-varied';
-      headLossM = 0.5 * (upstreamFrictionSlope + downstreamFrictionSlope) * lengthM;
-      energyResidualM = headDifferenceM - headLossM;
+      stepKinds[index - 1] = JUMP_STEP;
+      headLossesM[index - 1] = headDifferenceM;
+      energyResidualsM[index - 1] = Number.NaN;
     } else {
-      const enteredAcross = pieces[downstreamReach.index]?.enteredAcrossJunction === true && firstPointOfReach[downstreamReach.index] === index;
-      const record = junctions[previousReach.index];
-      // A jump at the foot of a drop: recorded on the reach below, between the brink and the water below.
-      const junctionJump = jumps.find((jump) => jump.placement === 'at-junction' && jump.reachIndex === downstreamReach.index);
-      if (junctionJump !== undefined && !enteredAcross) {
-        kind = 'hydraulic-jump';
-        headLossM = headDifferenceM;
-        energyResidualM = null;
-      } else if (enteredAcross || record?.kind !== 'critical-control') {
-        kind = 'junction';
-        const upstreamVelocityHeadM = velocityHead(previousReach, upstreamVelocityMs);
-        const downstreamVelocityHeadM = velocityHead(downstreamReach, downstreamVelocityMs);
-        headLossM = lossCoefficient * Math.abs(upstreamVelocityHeadM - downstreamVelocityHeadM);
-        energyResidualM = headDifferenceM - headLossM;
-      } else {
-        kind = 'junction-critical-control';
-        headLossM = headDifferenceM;
-        energyResidualM = null;
-      }
+      // Standard step: friction loss from the arithmetic mean of the end friction slopes.
+      const lengthM = (localStationsM[index] ?? 0) - (localStationsM[index - 1] ?? 0);
+      const headLossM = 0.5 * (upstreamFrictionSlope + downstreamFrictionSlope) * lengthM;
+      const residualM = headDifferenceM - headLossM;
+      stepKinds[index - 1] = GRADUALLY_VARIED_STEP;
+      headLossesM[index - 1] = headLossM;
+      energyResidualsM[index - 1] = residualM;
+      maximumEnergyResidualM = Math.max(maximumEnergyResidualM, Math.abs(residualM));
     }
-    if (energyResidualM !== null) maximumEnergyResidualM = Math.max(maximumEnergyResidualM, Math.abs(energyResidualM));
-    stepKinds[index - 1] = kind;
-    headLossesM[index - 1] = headLossM;
-    energyResidualsM[index - 1] = energyResidualM ?? Number.NaN;
-    upstreamReach = downstreamReach;
-    upstreamVelocityMs = downstreamVelocityMs;
-    upstreamEnergyM = downstreamEnergyM;
+    upstreamEnergyM = energyM;
     upstreamFrictionSlope = downstreamFrictionSlope;
   }
 
-  const table = new ProfilePointTable(reaches, localStationsM, depthsM, reachIndices, stepKinds, headLossesM, energyResidualsM);
-  const segments = classifySegments(reaches, table, stepKinds);
-  // A reach's points are contiguous, and so are its segments (flow order): each summary reads only its own slices.
-  const segmentsOfReach = reaches.map((): ProfileSegment[] => []);
-  for (const segment of segments) segmentsOfReach[segment.reachIndex]?.push(segment);
-  const summaries = reaches.map((reach, position) =>
-    summariseReach(reach, table, firstPointOfReach[position] ?? count, firstPointOfReach[position + 1] ?? count, segmentsOfReach[reach.index] ?? []),
-  );
-  return { converged: true, table, segments, reaches: summaries, maximumEnergyResidualM };
+  const segments = classifyReachSegments(flow, localStationsM, depthsM, stepKinds);
+  return {
+    surcharged,
+    localStationsM,
+    depthsM,
+    firstJoin: joins[0] ?? 'step',
+    stepKinds,
+    headLossesM,
+    energyResidualsM,
+    maximumEnergyResidualM,
+    segments,
+    ...reachExtremes(reach, localStationsM, depthsM),
+  };
+}
+
+/** Head at a point of a reach, m above the reach's upstream invert: bed, depth and alpha V^2 / 2g. */
+function localEnergyM(reach: ResolvedReach, localStationM: number, depthM: number): number {
+  const velocityMs = pointVelocityMs(reach.flow, depthM);
+  return -reach.flow.bedSlope * Math.min(localStationM, reach.lengthM) + depthM + velocityHead(reach, velocityMs);
+}
+
+/** The step joining the last point of the reach above (`above`, at its local station and depth) to `reach`'s first. */
+function joiningStep(
+  above: ResolvedReach,
+  aboveLocalM: number,
+  aboveDepthM: number,
+  reach: ResolvedReach,
+  part: ReachAssembly,
+  junctions: readonly JunctionRecord[],
+  pieces: readonly (SupercriticalPiece | undefined)[],
+  jumpAtHead: ReadonlySet<number>,
+  lossCoefficient: number,
+): { readonly kind: ProfileStepKind; readonly headLossM: number; readonly energyResidualM: number | null } {
+  const upstreamVelocityMs = pointVelocityMs(above.flow, aboveDepthM);
+  const downstreamLocalM = part.localStationsM[0] ?? 0;
+  const downstreamDepthM = part.depthsM[0] ?? 0;
+  const downstreamVelocityMs = pointVelocityMs(reach.flow, downstreamDepthM);
+  const headDifferenceM = pointEnergyElevationM(above, aboveLocalM, aboveDepthM, upstreamVelocityMs) - pointEnergyElevationM(reach, downstreamLocalM, downstreamDepthM, downstreamVelocityMs);
+  if (part.firstJoin === 'jump') return { kind: 'hydraulic-jump', headLossM: headDifferenceM, energyResidualM: null };
+  const enteredAcross = pieces[reach.index]?.enteredAcrossJunction === true;
+  const record = junctions[above.index];
+  // A jump at the foot of a drop: recorded on the reach below, between the brink and the water below.
+  if (jumpAtHead.has(reach.index) && !enteredAcross) return { kind: 'hydraulic-jump', headLossM: headDifferenceM, energyResidualM: null };
+  if (enteredAcross || record?.kind !== 'critical-control') {
+    const headLossM = lossCoefficient * Math.abs(velocityHead(above, upstreamVelocityMs) - velocityHead(reach, downstreamVelocityMs));
+    return { kind: 'junction', headLossM, energyResidualM: headDifferenceM - headLossM };
+  }
+  return { kind: 'junction-critical-control', headLossM: headDifferenceM, energyResidualM: null };
+}
+
+/** A reach's summary in channel stations and elevations, from its share in its own frame. */
+function summaryOf(reach: ResolvedReach, part: ReachAssembly): ReachProfileSummary {
+  const bankHeightM = reach.input.bankHeightM;
+  const profileClasses: SegmentClass[] = [];
+  for (const segment of part.segments) {
+    if (profileClasses[profileClasses.length - 1] !== segment.profileClass) profileClasses.push(segment.profileClass);
+  }
+  const flow = reach.flow;
+  return {
+    reachIndex: reach.index,
+    reachName: reach.input.name,
+    startStationM: reach.startStationM,
+    endStationM: reach.startStationM + reach.lengthM,
+    upstreamInvertElevationM: reach.upstreamInvertElevationM,
+    downstreamInvertElevationM: reach.downstreamInvertElevationM,
+    normalDepthM: flow.normalDepthM ?? null,
+    normalDepthNote: flow.normalDepthNote ?? null,
+    criticalDepthM: flow.criticalDepthM,
+    slopeClass: flow.slopeClass,
+    maximumDepthM: part.maximumDepthM,
+    maximumDepthStationM: pointStationM(reach, part.maximumDepthLocalM),
+    bankHeightM: bankHeightM ?? null,
+    minimumFreeboardM: bankHeightM === undefined ? null : part.minimumFreeboardM,
+    minimumFreeboardStationM: bankHeightM === undefined ? null : pointStationM(reach, part.minimumFreeboardLocalM),
+    overtoppedRanges: part.overtoppedLocal.map((range) => ({ fromStationM: pointStationM(reach, range.fromLocalM), toStationM: pointStationM(reach, range.toLocalM) })),
+    profileClasses,
+  };
 }
 
 /**
@@ -291,106 +454,69 @@ function makePoint(reach: ResolvedReach, localStationM: number, depthM: number):
   };
 }
 
-/** Segments: runs of standard steps in one reach whose mid-step depths fall in the same class. */
-function classifySegments(reaches: readonly ResolvedReach[], table: ProfilePointTable, stepKinds: readonly ProfileStepKind[]): ProfileSegment[] {
-  const segments: ProfileSegment[] = [];
-  let current: { reachIndex: number; fromStationM: number; toStationM: number; profileClass: SegmentClass; lastStep: number } | undefined;
-  const close = (): void => {
-    if (current === undefined) return;
-    const reach = reaches[current.reachIndex] as ResolvedReach;
-    segments.push({
-      reachIndex: current.reachIndex,
-      reachName: reach.input.name,
-      fromStationM: current.fromStationM,
-      toStationM: current.toStationM,
-      profileClass: current.profileClass,
-      description: describeSegmentClass(current.profileClass),
-    });
-    current = undefined;
-  };
+/** Segments of one reach, in its stations: runs of standard steps whose mid-step depths fall in the same class. */
+function classifyReachSegments(flow: ReachFlow, localStationsM: Float64Array, depthsM: Float64Array, stepKinds: Uint8Array): ReachAssembly['segments'] {
+  const segments: { fromLocalM: number; toLocalM: number; profileClass: SegmentClass }[] = [];
+  let current: { fromLocalM: number; toLocalM: number; profileClass: SegmentClass; lastStep: number } | undefined;
   for (let stepIndex = 0; stepIndex < stepKinds.length; stepIndex++) {
-    if (stepKinds[stepIndex] !== 'gradually-varied') continue;
-    const upstreamStationM = table.stationAt(stepIndex);
-    const downstreamStationM = table.stationAt(stepIndex + 1);
-    if (!(downstreamStationM - upstreamStationM > 0)) continue;
-    const reachIndex = table.reachIndexAt(stepIndex);
-    const flow = (reaches[reachIndex] as ResolvedReach).flow;
-    const middleDepthM = 0.5 * (table.depthAt(stepIndex) + table.depthAt(stepIndex + 1));
+    if (stepKinds[stepIndex] !== GRADUALLY_VARIED_STEP) continue;
+    const upstreamLocalM = localStationsM[stepIndex] ?? 0;
+    const downstreamLocalM = localStationsM[stepIndex + 1] ?? 0;
+    if (!(downstreamLocalM - upstreamLocalM > 0)) continue;
+    const middleDepthM = 0.5 * ((depthsM[stepIndex] ?? 0) + (depthsM[stepIndex + 1] ?? 0));
     const profileClass = classifySegment(flow.slopeClass, middleDepthM, flow.normalDepthM, flow.criticalDepthM);
-    if (current !== undefined && current.reachIndex === reachIndex && current.profileClass === profileClass && current.lastStep === stepIndex - 1) {
-      current.toStationM = downstreamStationM;
+    if (current !== undefined && current.profileClass === profileClass && current.lastStep === stepIndex - 1) {
+      current.toLocalM = downstreamLocalM;
       current.lastStep = stepIndex;
       continue;
     }
-    close();
-    current = { reachIndex, fromStationM: upstreamStationM, toStationM: downstreamStationM, profileClass, lastStep: stepIndex };
+    if (current !== undefined) segments.push({ fromLocalM: current.fromLocalM, toLocalM: current.toLocalM, profileClass: current.profileClass });
+    current = { fromLocalM: upstreamLocalM, toLocalM: downstreamLocalM, profileClass, lastStep: stepIndex };
   }
-  close();
+  if (current !== undefined) segments.push({ fromLocalM: current.fromLocalM, toLocalM: current.toLocalM, profileClass: current.profileClass });
   return segments;
 }
 
-/** Summary of one reach from its points, table rows fromIndex up to (not including) toIndex, and its own segments. */
-function summariseReach(reach: ResolvedReach, table: ProfilePointTable, fromIndex: number, toIndex: number, reachSegments: readonly ProfileSegment[]): ReachProfileSummary {
+/** The deepest point, the least freeboard and the over-topped stretches of one reach, in its stations. */
+function reachExtremes(
+  reach: ResolvedReach,
+  localStationsM: Float64Array,
+  depthsM: Float64Array,
+): Pick<ReachAssembly, 'maximumDepthM' | 'maximumDepthLocalM' | 'minimumFreeboardM' | 'minimumFreeboardLocalM' | 'overtoppedLocal'> {
   const bankHeightM = reach.input.bankHeightM;
   let maximumDepthM = Number.NEGATIVE_INFINITY;
-  let maximumDepthStationM = reach.startStationM;
+  let maximumDepthLocalM = 0;
   let minimumFreeboardM = Number.POSITIVE_INFINITY;
-  let minimumFreeboardStationM = reach.startStationM;
-  const overtoppedRanges: StationRange[] = [];
+  let minimumFreeboardLocalM = 0;
+  const overtoppedLocal: { fromLocalM: number; toLocalM: number }[] = [];
   let openRangeFromM: number | undefined;
-  let previousIndex = -1;
-  for (let index = fromIndex; index < toIndex; index++) {
-    if (table.reachIndexAt(index) !== reach.index) continue;
-    const depthM = table.depthAt(index);
-    const stationM = table.stationAt(index);
+  for (let index = 0; index < depthsM.length; index++) {
+    const depthM = depthsM[index] ?? 0;
+    const stationM = localStationsM[index] ?? 0;
     if (depthM > maximumDepthM) {
       maximumDepthM = depthM;
-      maximumDepthStationM = stationM;
+      maximumDepthLocalM = stationM;
     }
     if (bankHeightM !== undefined) {
       const freeboardM = bankHeightM - depthM;
       if (freeboardM < minimumFreeboardM) {
         minimumFreeboardM = freeboardM;
-        minimumFreeboardStationM = stationM;
+        minimumFreeboardLocalM = stationM;
       }
       const over = freeboardM < 0;
       const wasOver = openRangeFromM !== undefined;
       if (over !== wasOver) {
-        const crossingM = previousIndex < 0 ? stationM : bankCrossingStationM(table.stationAt(previousIndex), table.depthAt(previousIndex), stationM, depthM, bankHeightM);
+        const crossingM = index === 0 ? stationM : bankCrossingStationM(localStationsM[index - 1] ?? 0, depthsM[index - 1] ?? 0, stationM, depthM, bankHeightM);
         if (over) openRangeFromM = crossingM;
         else {
-          overtoppedRanges.push({ fromStationM: openRangeFromM ?? crossingM, toStationM: crossingM });
+          overtoppedLocal.push({ fromLocalM: openRangeFromM ?? crossingM, toLocalM: crossingM });
           openRangeFromM = undefined;
         }
       }
     }
-    previousIndex = index;
   }
-  if (openRangeFromM !== undefined && previousIndex >= 0) overtoppedRanges.push({ fromStationM: openRangeFromM, toStationM: table.stationAt(previousIndex) });
-  const profileClasses: SegmentClass[] = [];
-  for (const segment of reachSegments) {
-    if (profileClasses[profileClasses.length - 1] !== segment.profileClass) profileClasses.push(segment.profileClass);
-  }
-  const flow = reach.flow;
-  return {
-    reachIndex: reach.index,
-    reachName: reach.input.name,
-    startStationM: reach.startStationM,
-    endStationM: reach.startStationM + reach.lengthM,
-    upstreamInvertElevationM: reach.upstreamInvertElevationM,
-    downstreamInvertElevationM: reach.downstreamInvertElevationM,
-    normalDepthM: flow.normalDepthM ?? null,
-    normalDepthNote: flow.normalDepthNote ?? null,
-    criticalDepthM: flow.criticalDepthM,
-    slopeClass: flow.slopeClass,
-    maximumDepthM,
-    maximumDepthStationM,
-    bankHeightM: bankHeightM ?? null,
-    minimumFreeboardM: bankHeightM === undefined ? null : minimumFreeboardM,
-    minimumFreeboardStationM: bankHeightM === undefined ? null : minimumFreeboardStationM,
-    overtoppedRanges,
-    profileClasses,
-  };
+  if (openRangeFromM !== undefined && depthsM.length > 0) overtoppedLocal.push({ fromLocalM: openRangeFromM, toLocalM: localStationsM[depthsM.length - 1] ?? 0 });
+  return { maximumDepthM, maximumDepthLocalM, minimumFreeboardM, minimumFreeboardLocalM, overtoppedLocal };
 }
 
 /** Station where the depth crosses the bank height between two points (upstream, then downstream), by linear interpolation, m. */

@@ -63,6 +63,27 @@ export class ProfileReuse {
     return this.remember(knownFlow, knownDepthM, ['junction', unknownFlow, dropM, branch, lossCoefficient], compute);
   }
 
+  /**
+   * A reach's share of the assembled profile (profile-assembly.ts), made from its subcritical trace (filed under the
+   * trace's march, whose arrays are the same objects when the march was taken over), its supercritical piece and its
+   * flow description. Not counted among the reach computations.
+   */
+  reachAssembly<T>(
+    trace: { readonly stationsM: readonly number[]; readonly depthsM: readonly number[]; readonly noSubcriticalDepthAboveM: number | undefined; readonly noSubcriticalDepthReason: string | undefined },
+    piece: object | undefined,
+    flow: ReachFlow,
+    lengthM: number,
+    bankHeightM: number | undefined,
+    compute: () => T,
+  ): T {
+    const inputs = ['assembly', trace.depthsM, trace.noSubcriticalDepthAboveM, trace.noSubcriticalDepthReason, piece, flow, bankHeightM];
+    const found = this.find(trace.stationsM, lengthM, inputs);
+    if (found !== undefined) return found.value as T;
+    const value = compute();
+    this.file(trace.stationsM, lengthM, inputs, value, 0);
+    return value;
+  }
+
   private remember<T>(owner: object, number: number, inputs: readonly unknown[], compute: () => T): T {
     const found = this.find(owner, number, inputs);
     if (found !== undefined) {
