@@ -9,6 +9,12 @@
  * step objects per flow on every keystroke was two fifths of the analysis of a 50-reach channel (measured, issue 8).
  * The summaries, segments and energy check are computed from the columns with the same expressions as the points,
  * so every number is the same whichever is read.
+ *
+ * Reach by reach: each reach's points, the steps between them, its segments and its extremes are made in the
+ * reach's own frame (stations from its upstream end, heads from its upstream invert) from its marches and flow
+ * description only, and reach reuse takes them over with the marches (reach-reuse.ts); an edit elsewhere that lifts
+ * the bed above or shifts the stations leaves them equal bit for bit. Only the steps across junctions, in
+ * elevations, and the placing in channel stations are made for the whole channel on every computation.
  */
 import { CRITICAL_MATCH_RELATIVE_TOLERANCE, GRAVITY_MS2 } from '../constants.js';
 import { invertElevationAt, type ResolvedReach, type SubcriticalTrace } from './channel-model.js';

@@ -153,10 +153,11 @@ export interface ProfileStep {
   readonly headLossM: number;
   /**
    * Upstream head minus downstream head minus headLossM, m; null where no energy balance is imposed. It is
-   * recomputed from the reported points (channel stations, elevations), so besides the step's solve tolerance it
-   * carries their rounding: a few units in the last place of the heads, and of the stations times the friction
-   * slope (which only matters for flow a millimetre deep at tens of metres per second, as below a drop of tens of
-   * metres).
+   * recomputed from the reported points (inside a reach from its stations and depths, heads measured from the
+   * reach's upstream invert; across a junction from the two points' elevations), so besides the step's solve
+   * tolerance it carries their rounding: a few units in the last place of the heads, and of the stations times the
+   * friction slope (which only matters for flow a millimetre deep at tens of metres per second, as below a drop of
+   * tens of metres).
    */
   readonly energyResidualM: number | null;
 }
