@@ -425,13 +425,16 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     const carriedOriginIndex = run.carriedIn ? supercriticalOriginReachIndex(pointRuns) : undefined;
     pointRuns.push({ table: result.pointTable, offsetM, reachOffset });
     for (const segment of result.segments) {
-      segments.push({
-        reach: reachName(segment.reachIndex + reachOffset),
-        fromStation_m: segment.fromStationM + offsetM,
-        toStation_m: segment.toStationM + offsetM,
-        profileClass: segment.profileClass,
-        description: segment.description,
-      });
+      const reach = reachName(segment.reachIndex + reachOffset);
+      segments.push(
+        inModel(segment, offsetM, reach, () => ({
+          reach,
+          fromStation_m: segment.fromStationM + offsetM,
+          toStation_m: segment.toStationM + offsetM,
+          profileClass: segment.profileClass,
+          description: segment.description,
+        })),
+      );
     }
     for (const summary of result.reaches) summaries[summary.reachIndex + reachOffset] = summary;
     // A jump the run put beyond its outlet stands at the change of discharge unless the run below carries the flow on.
@@ -489,7 +492,7 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     const run = runs.find((candidate) => index >= candidate.firstReachIndex && index < candidate.firstReachIndex + candidate.reaches.length);
     if (summary === undefined || run === undefined) return null;
     const offsetM = run.startStationM;
-    return {
+    return inModel(summary, offsetM, '', () => ({
       startStation_m: summary.startStationM + offsetM,
       endStation_m: summary.endStationM + offsetM,
       maximumDepth_m: summary.maximumDepthM,
@@ -498,7 +501,7 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
       minimumFreeboardStation_m: summary.minimumFreeboardStationM === null ? null : summary.minimumFreeboardStationM + offsetM,
       overtoppedRanges: summary.overtoppedRanges.map((range) => ({ fromStation_m: range.fromStationM + offsetM, toStation_m: range.toStationM + offsetM })),
       profileClasses: [...summary.profileClasses],
-    };
+    }));
   });
   // The first reach at or below each reach whose slope can hold a jump (not steep), found once from the outlet up.
   const holdingAtOrBelow = new Array<number | undefined>(summaries.length);
@@ -582,6 +585,22 @@ function assemble(plan: ChannelPlan, runs: readonly Run[], datum: ChannelFlowPro
     failure: null,
   };
 }
+
+/**
+ * The model's words for an engine segment or reach summary, in channel stations (`offsetM`: where its run starts)
+ * and under a reach name: the same object as last time for the same engine object, offset and name. The engine
+ * keeps a reach's segments and summary while the reach's marches and place are unchanged (profile-assembly.ts), so
+ * the reach's share of the model is then the same object too, and the analysis recognises it at once.
+ */
+function inModel<T extends object>(engineObject: object, offsetM: number, reachName: string, make: () => T): T {
+  const last = modelObjects.get(engineObject);
+  if (last !== undefined && Object.is(last.offsetM, offsetM) && last.reachName === reachName) return last.result as T;
+  const result = make();
+  modelObjects.set(engineObject, { offsetM, reachName, result });
+  return result;
+}
+
+const modelObjects = new WeakMap<object, { readonly offsetM: number; readonly reachName: string; readonly result: object }>();
 
 /** The first and last point of a profile's columns; undefined when it has none. */
 function firstPointOf(table: ProfilePointColumns): ProfilePoint | undefined {
