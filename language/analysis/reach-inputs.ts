@@ -22,7 +22,7 @@ import {
 } from './design-inputs.js';
 import type { IncompleteReach, LiningResult, ReachFlowProfile, ResolvedCriteria, SectionResult, SourceLocation } from './model.js';
 import type { FindingDraft } from './profile-findings.js';
-import { locationOf, propertyLocationOf } from './source-locations.js';
+import { locationOf, propertyLocationOf, sameLocation } from './source-locations.js';
 
 /** One reach, resolved. */
 export interface ReachInputs {
@@ -177,18 +177,7 @@ function bankfullCapacityM3s(section: ResolvedSection, lining: ResolvedLining, s
 
 /** Equal discharges, set at the same place. */
 export function sameDischarge(left: ReachDischarge, right: ReachDischarge): boolean {
-  const a = left.flowLocation;
-  const b = right.flowLocation;
-  return (
-    left.flowName === right.flowName &&
-    left.description === right.description &&
-    Object.is(left.dischargeM3s, right.dischargeM3s) &&
-    a.uri === b.uri &&
-    a.range.start.line === b.range.start.line &&
-    a.range.start.character === b.range.start.character &&
-    a.range.end.line === b.range.end.line &&
-    a.range.end.character === b.range.end.character
-  );
+  return left.flowName === right.flowName && left.description === right.description && Object.is(left.dischargeM3s, right.dischargeM3s) && sameLocation(left.flowLocation, right.flowLocation);
 }
 
 /** Equal shares of the profile, value for value (sameData, with the common cases first). */

@@ -20,3 +20,14 @@ export function propertyLocationOf(node: AstNode, property: string): SourceLocat
   const cstNode = GrammarUtils.findNodeForProperty(node.$cstNode, property);
   return { uri: documentUriOf(node), range: (cstNode ?? node.$cstNode)?.range ?? EMPTY_RANGE };
 }
+
+/** Whether two locations are the same place. */
+export function sameLocation(left: SourceLocation, right: SourceLocation): boolean {
+  return (
+    left.uri === right.uri &&
+    left.range.start.line === right.range.start.line &&
+    left.range.start.character === right.range.start.character &&
+    left.range.end.line === right.range.end.line &&
+    left.range.end.character === right.range.end.character
+  );
+}

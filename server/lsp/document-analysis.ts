@@ -12,7 +12,7 @@ import type { LangiumSharedServices } from 'langium/lsp';
 import { isReach, type Reach } from '../../language/generated/ast.js';
 import { analyzeDocument } from '../../language/analysis/analyze-design.js';
 import { criteriaDefaultsKey, type CriteriaDefaults, type CriteriaDefaultsSource } from '../../language/analysis/criteria-settings.js';
-import type { DesignAnalysis, FlowResult, ReachResult, SourceLocation, SourcePosition } from '../../language/analysis/model.js';
+import type { DesignAnalysis, FlowResult, ReachResult, SourcePosition } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
 import type { RunnelEditorSettings } from './runnel-settings.js';
 
@@ -92,17 +92,6 @@ export function reachResultOf(analysis: DesignAnalysis, reach: Reach): ReachResu
 /** The reach a node lies in, if any. */
 export function enclosingReach(node: AstNode | undefined): Reach | undefined {
   return node === undefined ? undefined : AstUtils.getContainerOfType(node, isReach);
-}
-
-/** Whether two locations are the same place. */
-export function sameLocation(left: SourceLocation, right: SourceLocation): boolean {
-  return (
-    left.uri === right.uri &&
-    left.range.start.line === right.range.start.line &&
-    left.range.start.character === right.range.start.character &&
-    left.range.end.line === right.range.end.line &&
-    left.range.end.character === right.range.end.character
-  );
 }
 
 /** Every reach of the analysis with its result for one flow, in document order. */

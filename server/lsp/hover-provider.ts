@@ -31,13 +31,13 @@ import { resolveLining, resolveSection } from '../../language/analysis/design-in
 import { formatNumber, formatQuantity } from '../../language/analysis/format-quantity.js';
 import type { DesignAnalysis, FlowResult, ReachResult, SectionResult } from '../../language/analysis/model.js';
 import { isQuantityNode, QUANTITY_DIMENSIONS, readQuantity, type QuantityNode } from '../../language/analysis/quantities.js';
-import { locationOf } from '../../language/analysis/source-locations.js';
+import { locationOf, sameLocation } from '../../language/analysis/source-locations.js';
 import { CRITERION_FROM_SETTING } from '../../language/analysis/criteria-defaults.js';
 import { criteriaFromSettings } from '../../language/report/results-table.js';
 import { describeSection } from '../../language/report/section-from-result.js';
 import { escapeMarkdownInline } from '../../language/report/escape.js';
 import { DISPLAY_UNITS, fromSI, unitsOfDimension, type UnitSystem } from '../../language/units/units.js';
-import { reachesWithFlow, reachResultOf, sameLocation, type DocumentAnalyses } from './document-analysis.js';
+import { reachesWithFlow, reachResultOf, type DocumentAnalyses } from './document-analysis.js';
 import { failedCheckNames, HOVER_ROWS, SEVERITY_MARKERS, STATUS_MARKERS } from './result-text.js';
 import type { RunnelSettings } from './runnel-settings.js';
 

@@ -13,7 +13,8 @@ import { isChannel, isReach, isRunnelFile, type Reach } from '../../language/gen
 import { reachParts } from '../../language/analysis/design-inputs.js';
 import type { FlowResult, ReachResult } from '../../language/analysis/model.js';
 import type { UnitSystem } from '../../language/units/units.js';
-import { displaySystemFor, reachResultOf, sameLocation, type DocumentAnalyses } from './document-analysis.js';
+import { displaySystemFor, reachResultOf, type DocumentAnalyses } from './document-analysis.js';
+import { sameLocation } from '../../language/analysis/source-locations.js';
 import { findingsTooltip, flowHintText } from './result-text.js';
 import type { HintQuantities, RunnelSettings } from './runnel-settings.js';
 

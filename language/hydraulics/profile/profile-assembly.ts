@@ -7,8 +7,9 @@
  * step objects only when read. The analysis recomputes a channel's profiles on every edit and reads the reach
  * summaries, jumps and notes, while only a report or an export reads every point: building some 1,000 point and
  * step objects per flow on every keystroke was two fifths of the analysis of a 50-reach channel (measured, issue 8).
- * The summaries, segments and energy check are computed from the columns with the same expressions as the points,
- * so every number is the same whichever is read.
+ * The summaries and segments take their stations from the columns with the same expression as the points, so a
+ * station is the same whichever is read; the energy check inside a reach uses heads above the reach's own invert
+ * (below), across a junction the points' own elevations.
  *
  * Reach by reach: each reach's points, the steps between them, its segments and its extremes are made in the
  * reach's own frame (stations from its upstream end, heads from its upstream invert) from its marches and flow
@@ -432,7 +433,7 @@ function pointVelocityMs(flow: ReachFlow, depthM: number): number {
 /** Invert plus depth plus alpha V^2 / 2g, m. */
 function pointEnergyElevationM(reach: ResolvedReach, localStationM: number, depthM: number, velocityMs: number): number {
   const waterSurfaceElevationM = invertElevationAt(reach, localStationM) + depthM;
-  return waterSurfaceElevationM + (reach.flow.kineticEnergyCoefficient * velocityMs * velocityMs) / (2 * GRAVITY_MS2);
+  return waterSurfaceElevationM + velocityHead(reach, velocityMs);
 }
 
 function regimeOf(criticalDepthM: number, depthM: number): ProfileRegime {

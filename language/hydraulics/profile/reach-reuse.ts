@@ -77,20 +77,16 @@ export class ProfileReuse {
     compute: () => T,
   ): T {
     const inputs = ['assembly', trace.depthsM, trace.noSubcriticalDepthAboveM, trace.noSubcriticalDepthReason, piece, flow, bankHeightM];
-    const found = this.find(trace.stationsM, lengthM, inputs);
-    if (found !== undefined) return found.value as T;
-    const value = compute();
-    this.file(trace.stationsM, lengthM, inputs, value, 0);
-    return value;
+    return this.remember(trace.stationsM, lengthM, inputs, compute, false);
   }
 
-  private remember<T>(owner: object, number: number, inputs: readonly unknown[], compute: () => T): T {
+  private remember<T>(owner: object, number: number, inputs: readonly unknown[], compute: () => T, counted = true): T {
     const found = this.find(owner, number, inputs);
     if (found !== undefined) {
-      this.counts.reused++;
+      if (counted) this.counts.reused++;
       return found.value as T;
     }
-    this.counts.computed++;
+    if (counted) this.counts.computed++;
     const value = compute();
     this.file(owner, number, inputs, value, 0);
     return value;
