@@ -293,6 +293,26 @@ function marchSupercritical(
       const upstreamDepthM = depthsM[count - 2] ?? startDepthM;
       const downstreamStationM = stationsM[count - 1] ?? 0;
       const located = locateJump(reach, trace, upstreamStationM, upstreamDepthM, downstreamStationM);
+      // Where the backwater fills a conduit, the jump may only be placed at the end of the full stretch; if the water
+      // there still carries more specific force than the supercritical flow, the flow cannot hold it back: the jump
+      // is driven up into the full conduit, which then flows under pressure. No jump stands on the free surface
+      // (placing one there would report a jump that gains energy).
+      const subcriticalForceM3 = reachSpecificForceM3(flow, located.subcriticalDepthM);
+      const supercriticalForceM3 = reachSpecificForceM3(flow, located.supercriticalDepthM);
+      // The water below pushes harder than the supercritical flow can: the jump belongs further upstream.
+      const overpowered = subcriticalForceM3 - supercriticalForceM3 > SPECIFIC_FORCE_MATCH_RATIO * subcriticalForceM3;
+      if (overpowered && trace.noSubcriticalDepthReason === 'surcharged' && located.stationM <= (trace.noSubcriticalDepthAboveM ?? Number.NEGATIVE_INFINITY)) {
+        const crownM = flow.section.fullDepthM ?? 0;
+        return {
+          converged: false,
+          failure: failure(
+            'conduit-surcharged',
+            `The backwater fills the conduit of reach "${reach.input.name}" up to station ${(reach.startStationM + located.stationM).toFixed(2)} m, and the supercritical flow from upstream (${fixed(located.supercriticalDepthM)} m deep) carries less specific force than the water there (${fixed(located.subcriticalDepthM)} m deep, crown at ${fixed(crownM)} m): no jump can hold it back, so the conduit flows under pressure and the free-surface profile cannot be continued upstream.`,
+            reach,
+            located.stationM,
+          ),
+        };
+      }
       stationsM.length = count - 1;
       depthsM.length = count - 1;
       if (located.stationM > upstreamStationM) {
@@ -391,6 +411,12 @@ function makeJump(
     description: `Hydraulic jump ${where}: ${describeJumpType(jumpType)}, from ${fixed(upstreamDepthM)} m to ${fixed(downstreamDepthM)} m, energy loss ${fixed(energyLossM)} m.`,
   };
 }
+
+/**
+ * Specific forces closer than this fraction are a match: the jump's refinement solves the match to a station
+ * tolerance, which leaves differences of this order (a mismatch of a conduit held full is of order one).
+ */
+const SPECIFIC_FORCE_MATCH_RATIO = 1e-6;
 
 function failure(reason: ProfileFailureReason, message: string, reach: ResolvedReach, localStationM: number): SupercriticalPassResult & { converged: false } {
   return { converged: false, reason, message, reachIndex: reach.index, stationM: reach.startStationM + localStationM };

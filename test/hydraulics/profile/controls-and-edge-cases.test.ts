@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { GRAVITY_MS2 } from '../../../language/hydraulics/constants.js';
 import { computeChannelProfile, directStepProfile, type ChannelProfile, type ChannelProfileInput, type ChannelProfileResult } from '../../../language/hydraulics/profile/index.js';
-import { circleSection, rectangleSection, trapezoidSection } from '../../../language/hydraulics/sections/index.js';
+import { circleSection, parabolaSection, rectangleSection, trapezoidSection } from '../../../language/hydraulics/sections/index.js';
 import { solveNormalDepth } from '../../../language/hydraulics/uniform-flow.js';
 import { belangerRatio, rectangleCriticalDepthM } from './reference-integration.js';
 
@@ -311,6 +311,28 @@ describe('conduits', () => {
     expect(result.reason).toBe('conduit-surcharged');
     expect(result.stationM).toBe(5);
     expect(result.message).toMatch(/outlet is submerged/);
+  });
+  it('supercritical flow meeting a conduit held full by backwater: conduit-surcharged, never a jump that gains energy (found by the energy-balance property)', () => {
+    // An adverse pipe fed supercritical at its head, backed up to the crown from below. At the end of the full
+    // stretch the water (2.32 m in a 2.33 m pipe) carries far more specific force than the 0.71 m supercritical
+    // flow (whose sequent depth is about 1.29 m): no jump can stand there. Numbers as the property drew them.
+    const result = computeChannelProfile({
+      reaches: [
+        { name: 'reach 1', section: circleSection({ diameterM: 2.3298060138043644 }), manningN: 0.015089419167856463, bedSlope: -0.002598958942172005, lengthM: 115.29681143527463, downstreamInvertElevationM: 1.3320963571113285e-215 },
+        { name: 'reach 2', section: rectangleSection({ bottomWidthM: 1.771296617008642 }), manningN: 0.027137489515713036, bedSlope: 0, lengthM: 106.7533758971471, downstreamInvertElevationM: 6.692411709667333e-115 },
+        { name: 'reach 3', section: parabolaSection({ topWidthM: 1.6322728402984124, atDepthM: 1 }), manningN: 0.021529618636147472, bedSlope: 0.0002183889256842341, lengthM: 22.206262911992052, downstreamInvertElevationM: 8e-323 },
+      ],
+      dischargeM3s: 4.456413743281982,
+      outlet: { kind: 'free-fall' },
+      inlet: { kind: 'depth', depthM: 0.5784885328069694 },
+      junctionLossCoefficient: 0.0000300707287185783,
+    });
+    if (result.converged) {
+      for (const jump of result.jumps) expect(jump.energyLossM).toBeGreaterThanOrEqual(0);
+      return;
+    }
+    expect(result.reason).toBe('conduit-surcharged');
+    expect(result.message).toMatch(/no jump can hold it back/);
   });
   it('water at the outlet below the crown: a free-surface profile, every depth inside the pipe', () => {
     const profile = converged(computeChannelProfile(shortSteepPipe(1.2)));
