@@ -293,15 +293,16 @@ function marchSupercritical(
       const upstreamDepthM = depthsM[count - 2] ?? startDepthM;
       const downstreamStationM = stationsM[count - 1] ?? 0;
       const located = locateJump(reach, trace, upstreamStationM, upstreamDepthM, downstreamStationM);
-      // Where the backwater fills a conduit, the jump may only be placed at the end of the full stretch; if the water
-      // there still carries more specific force than the supercritical flow, the flow cannot hold it back: the jump
-      // is driven up into the full conduit, which then flows under pressure. No jump stands on the free surface
-      // (placing one there would report a jump that gains energy).
+      // Where the backwater fills a conduit, the refinement can only end at the end of the full stretch (the
+      // specific force below jumps there); if the water there still carries more specific force than the
+      // supercritical flow, the flow cannot hold it back: the jump is driven up into the full conduit, which then
+      // flows under pressure. No jump stands on the free surface (placing one there would report a jump that gains
+      // energy).
       const subcriticalForceM3 = reachSpecificForceM3(flow, located.subcriticalDepthM);
       const supercriticalForceM3 = reachSpecificForceM3(flow, located.supercriticalDepthM);
       // The water below pushes harder than the supercritical flow can: the jump belongs further upstream.
       const overpowered = subcriticalForceM3 - supercriticalForceM3 > SPECIFIC_FORCE_MATCH_RATIO * subcriticalForceM3;
-      if (overpowered && trace.noSubcriticalDepthReason === 'surcharged' && located.stationM <= (trace.noSubcriticalDepthAboveM ?? Number.NEGATIVE_INFINITY)) {
+      if (overpowered && trace.noSubcriticalDepthReason === 'surcharged') {
         const crownM = flow.section.fullDepthM ?? 0;
         return {
           converged: false,

@@ -8,6 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { GRAVITY_MS2 } from '../../../language/hydraulics/constants.js';
 import { computeChannelProfile, type ChannelProfileInput, type ProfileReachInput } from '../../../language/hydraulics/profile/index.js';
+import { JUMP_LOCATION_TOLERANCE_M } from '../../../language/hydraulics/profile/profile-defaults.js';
 import { circleSection, parabolaSection, rectangleSection, trapezoidSection, triangleSection } from '../../../language/hydraulics/sections/index.js';
 import type { SectionGeometry } from '../../../language/hydraulics/sections/section-geometry.js';
 
@@ -92,8 +93,15 @@ describe('energy balance at every step (random channels)', () => {
             residualM = headDifferenceM - frictionSlope * (b.stationM - a.stationM);
           } else if (step.kind === 'junction') {
             residualM = headDifferenceM - k * Math.abs(velocityHead(a.reachIndex, a.depthM) - velocityHead(b.reachIndex, b.depthM));
+          } else if (step.kind === 'hydraulic-jump' && a.reachIndex === b.reachIndex) {
+            // A jump in a reach loses head, to what the computation can tell: its station is refined only to
+            // JUMP_LOCATION_TOLERANCE_M, over which the two profiles' heads drift apart by the difference of their
+            // friction slopes, and each depth is solved to the step tolerance (derived). A jump of almost no height
+            // (near critical depth) may otherwise show a loss a few nanometres below zero.
+            const driftM = JUMP_LOCATION_TOLERANCE_M * Math.abs(friction(a.reachIndex, a.depthM) - friction(b.reachIndex, b.depthM));
+            expect(headDifferenceM).toBeGreaterThanOrEqual(-(2 * result.energyToleranceM * 1.01 + driftM + 8 * unitInLastPlace(head(a.reachIndex, a.invertElevationM, a.depthM))));
           } else {
-            // Dissipating steps (jumps, the brink of a drop) lose head; none may gain it.
+            // Other dissipating steps (the brink of a drop, a jump at a junction) lose head; none may gain it.
             expect(headDifferenceM).toBeGreaterThanOrEqual(-1e-9);
           }
           if (residualM !== undefined) {
