@@ -178,6 +178,14 @@ export function keepProfileMemo(document: object, memo: ProfileMemo): void {
   memosByDocument.set(document, { channels: memo.next, reaches: memo.reaches, sections: memo.sections });
 }
 
+/**
+ * The reach computations (flow descriptions, marches, junction balances) of the document's analyses so far: how
+ * many were taken over, how many computed and the time spent computing them (benchmarks: test/bench/documents.ts).
+ */
+export function reachComputationCounts(document: object): Readonly<ProfileReuse['counts']> | undefined {
+  return memosByDocument.get(document)?.reaches.counts;
+}
+
 /** Forgets every remembered channel profile (benchmarks and tests use it to time a fresh computation). */
 export function forgetChannelProfiles(): void {
   memosByDocument = new WeakMap();

@@ -12,6 +12,9 @@ import '../../language/polyfills/object-group-by.cjs'; // Object.groupBy for che
  *   (diagnostics), and the inlay hints of the whole document; their sum is the budget figure (under 50 ms at 500
  *   reaches on this machine, issue 4), and the analysis should take under a quarter of parse and link (issue 8).
  *   Editors ask for the hints of the visible lines only: the hints of a 60-line window are printed too;
+ * - of the analysis, the reach computations the edit could not take over from the previous version (flow
+ *   descriptions, marches and junction balances of the reaches its effect reaches: hydraulics/profile/reach-reuse.ts),
+ *   how many and their wall time: what any analysis of that edit must compute, the floor under the analysis figure;
  * - the analysis of the whole design from scratch (nothing remembered), as when a design is first opened;
  * - validation and edit to diagnostics: Langium's update with validation, as the server runs it;
  * - hover on a reach name (budget under 5 ms).
@@ -32,6 +35,7 @@ import { analyzeDocument, forgetAnalysis } from '../../language/analysis/analyze
 import { LspWorkspace } from '../server/lsp-workspace.js';
 import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
 import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
+import { reachComputationCounts } from '../../language/analysis/channel-profiles.js';
 
 const SIZES = (process.env.RUNNEL_BENCH_SIZES?.split(",").map(Number) ?? [50, 500, 5_000]) as readonly number[];
 const REACHES_PER_CHANNEL = 50;
@@ -100,6 +104,9 @@ interface InProcessFigures {
   readonly editToDiagnosticsMs: number;
   readonly editToDiagnosticsWallMs: number;
   readonly analysisMs: number;
+  /** Of the analysis: the reach computations the edit could not take over (how many, and their time). */
+  readonly recomputed: number;
+  readonly recomputedMs: number;
   readonly wholeAnalysisMs: number;
   readonly diagnosticsMs: number;
   readonly hintsMs: number;
@@ -142,6 +149,8 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
   // validation checks with that analysis cached (diagnostics), then the inlay hints of the whole document.
   const parseAndLink: number[] = [];
   const analysis: number[] = [];
+  const recomputed: number[] = [];
+  const recomputedMs: number[] = [];
   const diagnostics: number[] = [];
   const hints: number[] = [];
   let hintCount = 0;
@@ -153,8 +162,10 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
       await applyEdit(round);
       const linked = cpuNowMs();
       const current = workspace.document(uri);
+      const countsBefore = { ...reachComputationCounts(current) };
       analyzeDocument(current, NO_CRITERIA_DEFAULTS);
       const analysed = cpuNowMs();
+      const countsAfter = reachComputationCounts(current);
       await validator.validateDocument(current, { validation: { categories: ['built-in', 'fast'] } } as never);
       const validated = cpuNowMs();
       const shown = await hintProvider.getInlayHints(current, { textDocument: { uri }, range: wholeRange });
@@ -163,6 +174,8 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
       if (round >= WARM_UP_EDITS) {
         parseAndLink.push(linked - start);
         analysis.push(analysed - linked);
+        recomputed.push((countsAfter?.computed ?? Number.NaN) - (countsBefore.computed ?? 0));
+        recomputedMs.push((countsAfter?.computedMs ?? Number.NaN) - (countsBefore.computedMs ?? 0));
         diagnostics.push(validated - analysed);
         hints.push(hinted - validated);
       }
@@ -230,6 +243,8 @@ async function measureInProcess(reaches: number): Promise<InProcessFigures> {
     editToDiagnosticsMs: median(editToDiagnostics),
     editToDiagnosticsWallMs: median(editToDiagnosticsWall),
     analysisMs: median(analysis),
+    recomputed: median(recomputed),
+    recomputedMs: median(recomputedMs),
     wholeAnalysisMs: median(wholeAnalysis),
     diagnosticsMs: median(diagnostics),
     hintsMs: median(hints),
@@ -283,6 +298,7 @@ export async function run(): Promise<void> {
       ms(figures.parseAndLinkMs),
       ms(figures.analysisMs),
       (figures.analysisMs / figures.parseAndLinkMs).toFixed(2),
+      `${figures.recomputed} / ${ms(figures.recomputedMs)}`,
       ms(figures.diagnosticsMs),
       ms(figures.hintsMs),
       ms(ours),
@@ -301,6 +317,7 @@ export async function run(): Promise<void> {
     'parse+link',
     'analysis',
     'analysis / parse',
+    'of it, reach computations redone (count / wall)',
     'diagnostics',
     'hints',
     'our work',

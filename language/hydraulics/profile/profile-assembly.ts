@@ -3,10 +3,11 @@
  * between them with their head losses and energy residuals (recomputed from the points, so they check the
  * passes), the classified segments, and each reach's summary (deepest point, least freeboard, over-topping).
  *
- * The points are kept as columns (reach, station within the reach, depth; ProfilePointTable) and become point and
- * step objects only when read. The analysis recomputes a channel's profiles on every edit and reads the reach
- * summaries, jumps and notes, while only a report or an export reads every point: building some 1,000 point and
- * step objects per flow on every keystroke was two fifths of the analysis of a 50-reach channel (measured, issue 8).
+ * The points stay in each reach's own columns (station within the reach, depth), which ProfilePointTable reads in
+ * flow order without copying them into channel-wide ones, and become point and step objects only when read. The
+ * analysis recomputes a channel's profiles on every edit and reads the reach summaries, jumps and notes, while only
+ * a report or an export reads every point: building some 1,000 point and step objects per flow on every keystroke
+ * was two fifths of the analysis of a 50-reach channel (measured, issue 8).
  * The summaries and segments take their stations from the columns with the same expression as the points, so a
  * station is the same whichever is read; the energy check inside a reach uses heads above the reach's own invert
  * (below), across a junction the points' own elevations.
@@ -54,45 +55,54 @@ const JUMP_STEP = STEP_KINDS.indexOf('hydraulic-jump');
 type PointJoin = 'step' | 'jump';
 
 /**
- * A profile's computed sections as columns, in flow order, with the join from each point to the next. Points and
- * steps are built on request, from the same expressions the assembly used.
+ * A profile's computed sections, in flow order, read from the reaches' own columns (ReachAssembly) without copying
+ * them into channel-wide ones: each reach's points follow the points of the reach above, and the steps between two
+ * reaches are kept apart. Points and steps are built on request, from the same expressions the assembly used.
  */
 export class ProfilePointTable implements ProfilePointColumns {
+  /** The point index each part's first point has, and the point count after the last part. */
+  private readonly firstPoints: Int32Array;
+
   constructor(
-    private readonly reaches: readonly ResolvedReach[],
-    /** Station of each point, m from its reach's upstream end. */
-    private readonly localStationsM: Float64Array,
-    private readonly depthsM: Float64Array,
-    private readonly reachIndices: Int32Array,
-    /** stepKinds[i] (STEP_KINDS codes) joins point i to point i + 1; so do headLossesM[i] and energyResidualsM[i] (NaN: no balance imposed). */
-    private readonly stepKinds: Uint8Array,
-    private readonly headLossesM: Float64Array,
-    private readonly energyResidualsM: Float64Array,
-  ) {}
+    /** The reaches' parts that hold points, in flow order, with the reach each belongs to. */
+    private readonly parts: readonly ReachAssembly[],
+    private readonly partReaches: readonly ResolvedReach[],
+    /** joining[k] joins the last point of parts[k - 1] to the first of parts[k] (none before the first part). */
+    private readonly joining: readonly (JoiningStep | undefined)[],
+  ) {
+    this.firstPoints = new Int32Array(parts.length + 1);
+    for (let position = 0; position < parts.length; position++) {
+      this.firstPoints[position + 1] = (this.firstPoints[position] ?? 0) + (parts[position] as ReachAssembly).depthsM.length;
+    }
+  }
 
   get length(): number {
-    return this.depthsM.length;
+    return this.firstPoints[this.parts.length] ?? 0;
   }
 
   reachIndexAt(index: number): number {
-    return this.reachIndices[index] ?? 0;
+    return this.partReaches[this.partAt(index)]?.index ?? 0;
   }
 
   depthAt(index: number): number {
-    return this.depthsM[index] ?? 0;
+    const position = this.partAt(index);
+    return this.parts[position]?.depthsM[index - (this.firstPoints[position] ?? 0)] ?? 0;
   }
 
   /** Station of a point, m from the channel's upstream end. */
   stationAt(index: number): number {
-    return pointStationM(this.reachAt(index), this.localStationsM[index] ?? 0);
+    const position = this.partAt(index);
+    return pointStationM(this.partReaches[position] as ResolvedReach, this.parts[position]?.localStationsM[index - (this.firstPoints[position] ?? 0)] ?? 0);
   }
 
   regimeAt(index: number): ProfileRegime {
-    return regimeOf(this.reachAt(index).flow.criticalDepthM, this.depthAt(index));
+    return regimeOf((this.partReaches[this.partAt(index)] as ResolvedReach).flow.criticalDepthM, this.depthAt(index));
   }
 
   point(index: number): ProfilePoint {
-    return makePoint(this.reachAt(index), this.localStationsM[index] ?? 0, this.depthAt(index));
+    const position = this.partAt(index);
+    const local = index - (this.firstPoints[position] ?? 0);
+    return makePoint(this.partReaches[position] as ResolvedReach, this.parts[position]?.localStationsM[local] ?? 0, this.parts[position]?.depthsM[local] ?? 0);
   }
 
   /** Every point, in flow order. */
@@ -104,24 +114,47 @@ export class ProfilePointTable implements ProfilePointColumns {
 
   /** Every step: steps[i] joins points i and i + 1. */
   steps(): ProfileStep[] {
-    const steps = new Array<ProfileStep>(this.stepKinds.length);
+    const steps = new Array<ProfileStep>(Math.max(this.length - 1, 0));
     for (let index = 0; index < steps.length; index++) {
-      const residualM = this.energyResidualsM[index] ?? Number.NaN;
-      steps[index] = {
-        kind: STEP_KINDS[this.stepKinds[index] ?? 0] ?? 'gradually-varied',
-        upstreamPointIndex: index,
-        downstreamPointIndex: index + 1,
-        lengthM: this.stationAt(index + 1) - this.stationAt(index),
-        headLossM: this.headLossesM[index] ?? 0,
-        energyResidualM: Number.isNaN(residualM) ? null : residualM,
-      };
+      const position = this.partAt(index);
+      const local = index - (this.firstPoints[position] ?? 0);
+      const part = this.parts[position] as ReachAssembly;
+      let kind: ProfileStepKind;
+      let headLossM: number;
+      let residualM: number | null;
+      if (local + 1 < part.depthsM.length) {
+        kind = STEP_KINDS[part.stepKinds[local] ?? 0] ?? 'gradually-varied';
+        headLossM = part.headLossesM[local] ?? 0;
+        const residual = part.energyResidualsM[local] ?? Number.NaN;
+        residualM = Number.isNaN(residual) ? null : residual;
+      } else {
+        const step = this.joining[position + 1] as JoiningStep;
+        ({ kind, headLossM } = step);
+        residualM = step.energyResidualM;
+      }
+      steps[index] = { kind, upstreamPointIndex: index, downstreamPointIndex: index + 1, lengthM: this.stationAt(index + 1) - this.stationAt(index), headLossM, energyResidualM: residualM };
     }
     return steps;
   }
 
-  private reachAt(index: number): ResolvedReach {
-    return this.reaches[this.reachIndexAt(index)] as ResolvedReach;
+  /** The part holding point `index`: the last whose first point is at or before it (parts hold at least one point). */
+  private partAt(index: number): number {
+    let low = 0;
+    let high = this.parts.length - 1;
+    while (low < high) {
+      const middle = (low + high + 1) >> 1;
+      if ((this.firstPoints[middle] ?? 0) <= index) low = middle;
+      else high = middle - 1;
+    }
+    return low;
   }
+}
+
+/** The step from the last point of one reach to the first point of the next, in elevations. */
+interface JoiningStep {
+  readonly kind: ProfileStepKind;
+  readonly headLossM: number;
+  readonly energyResidualM: number | null;
 }
 
 export function assembleProfile(
@@ -135,7 +168,6 @@ export function assembleProfile(
 ): AssemblyResult {
   // Each reach's share in its own frame, taken over with the marches it is made from (reach-reuse.ts).
   const parts: ReachAssembly[] = [];
-  let count = 0;
   for (const reach of reaches) {
     const trace = traces[reach.index] as SubcriticalTrace;
     const piece = pieces[reach.index];
@@ -143,49 +175,43 @@ export function assembleProfile(
     const part = reuse === undefined ? assemble() : reuse.reachAssembly(trace, piece, reach.flow, reach.lengthM, reach.input.bankHeightM, assemble);
     if (part.surcharged) return { converged: false, surchargedReachIndex: reach.index };
     parts.push(part);
-    count += part.depthsM.length;
   }
 
-  const localStationsM = new Float64Array(count);
-  const depthsM = new Float64Array(count);
-  const reachIndices = new Int32Array(count);
-  const stepCount = Math.max(count - 1, 0);
-  const stepKinds = new Uint8Array(stepCount);
-  const headLossesM = new Float64Array(stepCount);
-  const energyResidualsM = new Float64Array(stepCount);
+  const pointParts: ReachAssembly[] = [];
+  const pointReaches: ResolvedReach[] = [];
+  const joining: (JoiningStep | undefined)[] = [];
   const segments: ProfileSegment[] = [];
   const summaries: ReachProfileSummary[] = [];
   let maximumEnergyResidualM = 0;
-  let filled = 0;
   let lastReach: ResolvedReach | undefined;
+  let lastPart: ReachAssembly | undefined;
   // Reaches with a jump at their head (the foot of a drop above them).
   const jumpAtHead = new Set(jumps.filter((jump) => jump.placement === 'at-junction').map((jump) => jump.reachIndex));
   for (let position = 0; position < reaches.length; position++) {
     const reach = reaches[position] as ResolvedReach;
     const part = parts[position] as ReachAssembly;
     const pointCount = part.depthsM.length;
-    localStationsM.set(part.localStationsM, filled);
-    depthsM.set(part.depthsM, filled);
-    reachIndices.fill(reach.index, filled, filled + pointCount);
-    if (pointCount > 0 && filled > 0 && lastReach !== undefined) {
-      // The step from the last point above (another reach) to this reach's first point, in elevations.
-      const step = joiningStep(lastReach, localStationsM[filled - 1] ?? 0, depthsM[filled - 1] ?? 0, reach, part, junctions, pieces, jumpAtHead, lossCoefficient);
-      stepKinds[filled - 1] = STEP_KINDS.indexOf(step.kind);
-      headLossesM[filled - 1] = step.headLossM;
-      energyResidualsM[filled - 1] = step.energyResidualM ?? Number.NaN;
-      if (step.energyResidualM !== null) maximumEnergyResidualM = Math.max(maximumEnergyResidualM, Math.abs(step.energyResidualM));
+    if (pointCount > 0) {
+      if (lastReach !== undefined && lastPart !== undefined) {
+        // The step from the last point above (another reach) to this reach's first point, in elevations.
+        const lastIndex = lastPart.depthsM.length - 1;
+        const step = joiningStep(lastReach, lastPart.localStationsM[lastIndex] ?? 0, lastPart.depthsM[lastIndex] ?? 0, reach, part, junctions, pieces, jumpAtHead, lossCoefficient);
+        joining.push(step);
+        if (step.energyResidualM !== null) maximumEnergyResidualM = Math.max(maximumEnergyResidualM, Math.abs(step.energyResidualM));
+      } else {
+        joining.push(undefined);
+      }
+      pointParts.push(part);
+      pointReaches.push(reach);
+      lastReach = reach;
+      lastPart = part;
     }
-    stepKinds.set(part.stepKinds, filled);
-    headLossesM.set(part.headLossesM, filled);
-    energyResidualsM.set(part.energyResidualsM, filled);
     maximumEnergyResidualM = Math.max(maximumEnergyResidualM, part.maximumEnergyResidualM);
     const placed = placedShare(reach, part);
     for (const segment of placed.segments) segments.push(segment);
     summaries.push(placed.summary);
-    if (pointCount > 0) lastReach = reach;
-    filled += pointCount;
   }
-  const table = new ProfilePointTable(reaches, localStationsM, depthsM, reachIndices, stepKinds, headLossesM, energyResidualsM);
+  const table = new ProfilePointTable(pointParts, pointReaches, joining);
   return { converged: true, table, segments, reaches: summaries, maximumEnergyResidualM };
 }
 
@@ -218,37 +244,26 @@ interface ReachAssembly {
   placed?: PlacedShare;
 }
 
-/** A reach's segments and summary in channel stations and elevations, and where the reach stood when they were made. */
+/** A reach's segments and summary in channel stations, and where the reach stood when they were made. */
 interface PlacedShare {
-  readonly reach: Pick<ResolvedReach, 'index' | 'startStationM' | 'upstreamInvertElevationM' | 'downstreamInvertElevationM'> & { readonly name: string };
+  readonly reach: Pick<ResolvedReach, 'index' | 'startStationM'> & { readonly name: string };
   readonly segments: readonly ProfileSegment[];
   readonly summary: ReachProfileSummary;
 }
 
 /**
- * The reach's share in channel stations and elevations: the same objects as last time when the reach has not moved
- * (its upstream invert follows from the downstream one, the slope and the length, but is compared all the same).
+ * The reach's share in channel stations: the same objects as last time when the reach has not moved along the
+ * channel. Its segments and summary hold stations and depths only, no elevations, so an edit below that lifts the bed
+ * under it leaves them as they were (the part itself is the same only for the same length, flow description and bank
+ * height: reach-reuse.ts).
  */
 function placedShare(reach: ResolvedReach, part: ReachAssembly): PlacedShare {
   const last = part.placed?.reach;
-  if (
-    last !== undefined &&
-    last.index === reach.index &&
-    last.name === reach.input.name &&
-    Object.is(last.startStationM, reach.startStationM) &&
-    Object.is(last.upstreamInvertElevationM, reach.upstreamInvertElevationM) &&
-    Object.is(last.downstreamInvertElevationM, reach.downstreamInvertElevationM)
-  ) {
+  if (last !== undefined && last.index === reach.index && last.name === reach.input.name && Object.is(last.startStationM, reach.startStationM)) {
     return part.placed as PlacedShare;
   }
   const placed: PlacedShare = {
-    reach: {
-      index: reach.index,
-      name: reach.input.name,
-      startStationM: reach.startStationM,
-      upstreamInvertElevationM: reach.upstreamInvertElevationM,
-      downstreamInvertElevationM: reach.downstreamInvertElevationM,
-    },
+    reach: { index: reach.index, name: reach.input.name, startStationM: reach.startStationM },
     segments: part.segments.map((segment) => ({
       reachIndex: reach.index,
       reachName: reach.input.name,
@@ -372,8 +387,6 @@ function summaryOf(reach: ResolvedReach, part: ReachAssembly): ReachProfileSumma
     reachName: reach.input.name,
     startStationM: reach.startStationM,
     endStationM: reach.startStationM + reach.lengthM,
-    upstreamInvertElevationM: reach.upstreamInvertElevationM,
-    downstreamInvertElevationM: reach.downstreamInvertElevationM,
     normalDepthM: flow.normalDepthM ?? null,
     normalDepthNote: flow.normalDepthNote ?? null,
     criticalDepthM: flow.criticalDepthM,

@@ -216,8 +216,6 @@ export interface ReachProfileSummary {
   readonly reachName: string;
   readonly startStationM: number;
   readonly endStationM: number;
-  readonly upstreamInvertElevationM: number;
-  readonly downstreamInvertElevationM: number;
   /** Null when there is none (horizontal or adverse bed, or flow beyond a conduit's capacity); see normalDepthNote. */
   readonly normalDepthM: number | null;
   readonly normalDepthNote: string | null;

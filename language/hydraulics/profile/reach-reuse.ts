@@ -40,8 +40,13 @@ interface Entry {
 }
 
 export class ProfileReuse {
-  /** Marches and flow descriptions taken over and computed since this object was made (for tests and benchmarks). */
-  readonly counts = { reused: 0, computed: 0 };
+  /**
+   * Marches, flow descriptions and junction balances taken over and computed since this object was made, and the
+   * milliseconds spent inside the computations (for tests and benchmarks: what an edit cannot avoid computing).
+   */
+  readonly counts = { reused: 0, computed: 0, computedMs: 0 };
+  /** Computations under way: one computed inside another is timed with the outer one only. */
+  private computing = 0;
   private readonly filed = new WeakMap<object, Map<number, Entry[]>>();
   private generation = 0;
 
@@ -86,10 +91,22 @@ export class ProfileReuse {
       if (counted) this.counts.reused++;
       return found.value as T;
     }
-    if (counted) this.counts.computed++;
-    const value = compute();
+    const value = counted ? this.timed(compute) : compute();
     this.file(owner, number, inputs, value, 0);
     return value;
+  }
+
+  private timed<T>(compute: () => T): T {
+    this.counts.computed++;
+    if (this.computing > 0) return compute();
+    this.computing++;
+    const start = performance.now();
+    try {
+      return compute();
+    } finally {
+      this.counts.computedMs += performance.now() - start;
+      this.computing--;
+    }
   }
 
   /**
@@ -103,9 +120,8 @@ export class ProfileReuse {
       this.counts.reused++;
       return found.value as T;
     }
-    this.counts.computed++;
     const before = budget.remaining;
-    const value = compute();
+    const value = this.timed(compute);
     if (keep(value)) this.file(flow, startDepthM, inputs, value, before - budget.remaining);
     return value;
   }
