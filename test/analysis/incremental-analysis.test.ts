@@ -183,6 +183,36 @@ describe('the analysis after an edit', () => {
     expect(withoutVersion(analysis)).toEqual(withoutVersion(analyzeDocument(same!, NO_CRITERIA_DEFAULTS)));
   });
 
+  it("writes a taken-over reach's jump finding again when a reach it names is renamed, although its numbers are unchanged", async () => {
+    // A steep concrete chute onto a short mild apron with a free fall: the supercritical flow from the chute runs
+    // through the apron, which could hold a jump, and leaves the channel. The finding stands on the apron (whose text
+    // is unchanged) and names the chute; renaming the chute changes no number of the apron's profile.
+    const design = (chute: string): string =>
+      [
+        'design "Chute and apron"',
+        'units US',
+        'flows {\n  q = 30 cfs "design"\n}',
+        'section ditch trapezoid {\n  bottom width 3 ft\n  side slopes 3:1\n  bank height 3 ft\n}',
+        'lining concrete {\n  n 0.013\n  permissible velocity 20 ft/s\n}',
+        'channel c {',
+        '  reach upper {\n    section ditch\n    lining concrete\n    slope 0.2 %\n    length 200 ft\n  }',
+        `  reach ${chute} {\n    section ditch\n    lining concrete\n    slope 6 %\n    length 150 ft\n  }`,
+        '  reach apron {\n    section ditch\n    lining concrete\n    slope 0.1 %\n    length 60 ft\n  }',
+        '  outlet free fall',
+        '}',
+      ].join('\n');
+    const sweptOut = (analysis: DesignAnalysis) => analysis.findings.find((finding) => finding.reach === 'apron' && finding.code === 'hydraulic-jump-swept-out');
+    const editor = await LspWorkspace.create();
+    const [document] = await editor.set({ 'chute.runnel': design('chute') });
+    expect(sweptOut(analyzeDocument(document!, NO_CRITERIA_DEFAULTS))?.message).toContain("reach 'chute'");
+    const [renamed] = await editor.set({ 'chute.runnel': design('steep') });
+    const analysis = analyzeDocument(renamed!, NO_CRITERIA_DEFAULTS);
+    expect(sweptOut(analysis)?.message).toContain("reach 'steep'");
+    const fresh = await LspWorkspace.create();
+    const [same] = await fresh.set({ 'chute.runnel': design('steep') });
+    expect(withoutVersion(analysis)).toEqual(withoutVersion(analyzeDocument(same!, NO_CRITERIA_DEFAULTS)));
+  });
+
   it('computes every channel again when the criteria defaults from settings change', async () => {
     // Only the reaches of a design silent on a criterion take the setting: strip the design's criteria block.
     const silent = THREE_CHANNELS.replace('criteria {\n  freeboard 0.5 ft\n}\n', '');
