@@ -374,7 +374,7 @@ function joiningStep(
   return { kind: 'junction-critical-control', headLossM: headDifferenceM, energyResidualM: null };
 }
 
-/** A reach's summary in channel stations and elevations, from its share in its own frame. */
+/** A reach's summary in channel stations, from its share in its own frame. */
 function summaryOf(reach: ResolvedReach, part: ReachAssembly): ReachProfileSummary {
   const bankHeightM = reach.input.bankHeightM;
   const profileClasses: SegmentClass[] = [];
