@@ -162,8 +162,9 @@ export function renderLongitudinalSvg(channel: ChannelResult, system: UnitSystem
     parts.push(segmentsPath(`normal-line ${colour}`, 'normal-depth-line', flowName, placements, depthOf('normal'), X, Y));
   }
 
-  // The computed water surface of each flow, and its jumps (labels of different flows stacked, not overlapping).
-  profiles.forEach((profile, profileIndex) => {
+  // The computed water surface of each flow, and its jumps (their labels laid out clear of each other).
+  const jumpLabels = new JumpLabelLayout();
+  profiles.forEach((profile) => {
     const colour = colourOf(profile.flow);
     const points = profile.points.map((point) => ({ x: X(point.station_m), y: Y(point.waterSurface_m) }));
     if (points.length > 1) parts.push(`<path class="profile-line ${colour}" data-role="water-surface-profile" data-flow="${escapeHtml(profile.flow)}" d="${pathThrough(points, false)}"/>`);
@@ -172,11 +173,12 @@ export function renderLongitudinalSvg(channel: ChannelResult, system: UnitSystem
       const x = X(jump.station_m);
       const yLow = Y(bed + jump.upstreamDepth_m);
       const yHigh = Y(bed + jump.downstreamDepth_m);
+      const label = jumpLabels.place(x, yHigh);
       parts.push(
         `<g class="jump-mark ${colour}" data-role="hydraulic-jump" data-flow="${escapeHtml(profile.flow)}" data-station-m="${jump.station_m}" ` +
           `data-upstream-depth-m="${jump.upstreamDepth_m}" data-downstream-depth-m="${jump.downstreamDepth_m}">` +
           `<path d="M${px(x)} ${px(yLow)} L${px(x)} ${px(yHigh)} M${px(x - 4)} ${px(yHigh + 6)} L${px(x)} ${px(yHigh)} L${px(x + 4)} ${px(yHigh + 6)}"/>` +
-          `<text class="fig-label" x="${px(x + 6)}" y="${px(yHigh - 4 - 11 * profileIndex)}">${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text></g>`,
+          `<text class="fig-label" x="${px(label.x)}" y="${px(label.y)}"${label.anchor === 'end' ? ' text-anchor="end"' : ''}>${escapeHtml(DRAWING_WORDS.hydraulicJump)}</text></g>`,
       );
     }
   });
@@ -277,3 +279,34 @@ function isPositiveFinite(value: number | null | undefined): value is number {
   return value !== null && value !== undefined && Number.isFinite(value) && value > 0;
 }
 
+
+/** Height of one line of label text, px (11 px type with its leading). */
+const LABEL_LINE_PX = 13;
+
+/**
+ * Places the jumps' labels: beside the top of the jump (to its left where the text would run past the drawing's
+ * right edge), moved up a line at a time, then down, until it is clear of every label already placed, so that the
+ * jumps of several flows at nearly the same station stay readable. Widths are estimated from the character count.
+ */
+class JumpLabelLayout {
+  private readonly placed: { readonly left: number; readonly right: number; readonly baseline: number }[] = [];
+  private readonly widthPx = DRAWING_WORDS.hydraulicJump.length * CHARACTER_WIDTH * 1.1; // the label is bold
+
+  place(x: number, yHigh: number): { readonly x: number; readonly y: number; readonly anchor: 'start' | 'end' } {
+    const anchor = x + 6 + this.widthPx > DRAWING_WIDTH - 4 ? 'end' : 'start';
+    const left = anchor === 'end' ? x - 6 - this.widthPx : x + 6;
+    const right = left + this.widthPx;
+    const clear = (baseline: number): boolean =>
+      this.placed.every((label) => label.right <= left || right <= label.left || Math.abs(label.baseline - baseline) >= LABEL_LINE_PX);
+    // Inside the plot whatever the numbers (a non-finite or far-off top would leave nothing to step through).
+    const top = PLOT.top + LABEL_LINE_PX;
+    const bottom = PLOT.top + PLOT.height;
+    const first = Number.isFinite(yHigh) ? Math.min(Math.max(yHigh - 4, top), bottom) : top;
+    const candidates: number[] = [];
+    for (let baseline = first; baseline >= top; baseline -= LABEL_LINE_PX) candidates.push(baseline);
+    for (let baseline = first + LABEL_LINE_PX; baseline <= bottom; baseline += LABEL_LINE_PX) candidates.push(baseline);
+    const baseline = candidates.find(clear) ?? first;
+    this.placed.push({ left, right, baseline });
+    return { x: anchor === 'end' ? x - 6 : x + 6, y: baseline, anchor };
+  }
+}

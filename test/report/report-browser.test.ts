@@ -15,6 +15,9 @@ import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DesignAnalysis } from '../../language/analysis/model.js';
 import { renderReportHtml } from '../../language/report/report-html.js';
+import { analyzeDocument } from '../../language/analysis/analyze-design.js';
+import { NO_CRITERIA_DEFAULTS } from '../../language/analysis/criteria-settings.js';
+import { LspWorkspace, sampleTexts } from '../server/lsp-workspace.js';
 import { HOSTILE_NAMES, siDesign } from './fixtures.js';
 
 const CHROMIUM_PATH = '/usr/bin/chromium';
@@ -100,6 +103,36 @@ describe.skipIf(!chromiumPresent)('exported report in headless Chromium', () => 
     expect(overflowing).toEqual([]);
     await page.screenshot({ path: path.join(OUTPUT_DIRECTORY, 'report.png') });
     await page.screenshot({ path: path.join(OUTPUT_DIRECTORY, 'report-full.png'), fullPage: true });
+  });
+
+  it("keeps every text of the samples' drawings clear of every other (jump labels of several flows included)", { timeout: 60_000 }, async () => {
+    const workspace = await LspWorkspace.create();
+    const documents = await workspace.set(sampleTexts());
+    const overlaps: string[] = [];
+    for (const document of documents) {
+      if (!document.uri.path.endsWith('.runnel')) continue;
+      const analysis = analyzeDocument(document, NO_CRITERIA_DEFAULTS);
+      if (analysis.kind !== 'design') continue;
+      const name = path.basename(document.uri.path, '.runnel');
+      const { page } = await load(`sample-${name}.html`, renderReportHtml(analysis, { generatedAt: new Date('2025-05-06T09:30:00Z'), fileName: `${name}.runnel` }));
+      const found: string[] = await page.evaluate(`(() => {
+        const out = [];
+        for (const svg of document.querySelectorAll('svg.fig')) {
+          const boxes = [...svg.querySelectorAll('text')].map((text) => ({ text: text.textContent, box: text.getBoundingClientRect() })).filter((entry) => entry.box.width > 0);
+          for (let i = 0; i < boxes.length; i++) {
+            for (let j = i + 1; j < boxes.length; j++) {
+              const a = boxes[i].box;
+              const b = boxes[j].box;
+              // More than a pixel of overlap both ways.
+              if (a.left < b.right - 1 && b.left < a.right - 1 && a.top < b.bottom - 1 && b.top < a.bottom - 1) out.push(svg.id + ': "' + boxes[i].text + '" and "' + boxes[j].text + '"');
+            }
+          }
+        }
+        return out;
+      })()`);
+      overlaps.push(...found.map((overlap) => `${name}: ${overlap}`));
+    }
+    expect(overlaps).toEqual([]);
   });
 
   it('follows a dark colour scheme when standalone', async () => {
