@@ -105,7 +105,7 @@ describe.skipIf(!chromiumPresent)('exported report in headless Chromium', () => 
     await page.screenshot({ path: path.join(OUTPUT_DIRECTORY, 'report-full.png'), fullPage: true });
   });
 
-  it("keeps every text of the samples' drawings clear of every other (jump labels of several flows included)", { timeout: 60_000 }, async () => {
+  it("keeps every text of the samples' drawings inside its drawing and clear of every other (jump labels of several flows included)", { timeout: 60_000 }, async () => {
     const workspace = await LspWorkspace.create();
     const documents = await workspace.set(sampleTexts());
     const overlaps: string[] = [];
@@ -118,7 +118,11 @@ describe.skipIf(!chromiumPresent)('exported report in headless Chromium', () => 
       const found: string[] = await page.evaluate(`(() => {
         const out = [];
         for (const svg of document.querySelectorAll('svg.fig')) {
+          const frame = svg.getBoundingClientRect();
           const boxes = [...svg.querySelectorAll('text')].map((text) => ({ text: text.textContent, box: text.getBoundingClientRect() })).filter((entry) => entry.box.width > 0);
+          for (const { text, box } of boxes) {
+            if (box.left < frame.left - 2 || box.right > frame.right + 2 || box.top < frame.top - 2 || box.bottom > frame.bottom + 2) out.push(svg.id + ': "' + text + '" outside the drawing');
+          }
           for (let i = 0; i < boxes.length; i++) {
             for (let j = i + 1; j < boxes.length; j++) {
               const a = boxes[i].box;
