@@ -297,6 +297,23 @@ export function marchAlongReach(
           Math.abs(step.depthM - normalDepthM) > normalDepthBandM &&
           trialM > negligibleDistanceM
         ) {
+          // The profile reaches normal depth within the step: land on it by the direct step (the distance at which
+          // the energy equation puts yn, within the step), as for critical depth. Where the reach's normal depth
+          // lies a hair above or below critical depth, the profile closes on yn within micrometres, far shorter
+          // than any step, and halving the step until it no longer crossed would crawl for millions of steps.
+          evaluateEnergyFriction(flow, normalDepthM, scratch);
+          const frictionTerm = sign * (flow.bedSlope - 0.5 * (known.frictionSlope + scratch.frictionSlope));
+          const toNormalM = -(scratch.specificEnergyM - known.specificEnergyM) / frictionTerm;
+          if (toNormalM > negligibleDistanceM && toNormalM < trialM) {
+            step.depthM = normalDepthM;
+            step.residualM = scratch.specificEnergyM - known.specificEnergyM + frictionTerm * toNormalM;
+            step.specificEnergyM = scratch.specificEnergyM;
+            step.specificEnergySlope = scratch.specificEnergySlope;
+            step.frictionSlope = scratch.frictionSlope;
+            trialM = toNormalM;
+            accepted = true;
+            continue;
+          }
           trialM *= 0.5;
           shortened = true;
           continue;

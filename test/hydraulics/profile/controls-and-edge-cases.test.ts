@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { GRAVITY_MS2 } from '../../../language/hydraulics/constants.js';
 import { computeChannelProfile, directStepProfile, type ChannelProfile, type ChannelProfileInput, type ChannelProfileResult } from '../../../language/hydraulics/profile/index.js';
-import { circleSection, parabolaSection, rectangleSection, trapezoidSection } from '../../../language/hydraulics/sections/index.js';
+import { circleSection, parabolaSection, rectangleSection, trapezoidSection, triangleSection } from '../../../language/hydraulics/sections/index.js';
 import { solveNormalDepth } from '../../../language/hydraulics/uniform-flow.js';
 import { belangerRatio, rectangleCriticalDepthM } from './reference-integration.js';
 
@@ -337,6 +337,42 @@ describe('conduits', () => {
   it('water at the outlet below the crown: a free-surface profile, every depth inside the pipe', () => {
     const profile = converged(computeChannelProfile(shortSteepPipe(1.2)));
     expect(profile.points.every((point) => point.depthM < 1.5)).toBe(true);
+  });
+});
+
+describe('a reach whose normal depth lies a hair from critical depth', () => {
+  // Found by the energy-balance property (a random channel drawn by fast-check; the numbers are the drawn ones): a
+  // 406 m V-ditch at 8 % with n = 0.05 carries 0.05 m3/s at a normal depth 1.1 micrometres above critical depth
+  // (mild by 4e-6 of the depth, outside the critical class's rounding band). Near such a normal depth the gradually
+  // varied profile closes on yn within micrometres (dy/dx = (S0 - Sf) / (1 - Fr^2), both sides vanishing at yn and
+  // yc: Chow 1959, Sec. 9-1); the march used to halve every step that crossed yn, crawl in 0.1 mm steps and stop at
+  // the 5,000,000-step cap ("needed more steps than allowed"). It now lands on yn by the direct step and goes on in
+  // uniform flow.
+  const ditch: ChannelProfileInput = {
+    reaches: [
+      { name: 'reach 1', section: triangleSection({ leftSideSlopeHV: 0.7603947737573663, rightSideSlopeHV: 0.7603947737573663 }), manningN: 0.049999999999999954, bedSlope: 0.08, lengthM: 406.3692733590663 },
+      { name: 'reach 2', section: rectangleSection({ bottomWidthM: 2.3456540873657117 }), manningN: 0.031367770726624694, bedSlope: 0.02324730270135603, lengthM: 15.636681981208156, downstreamInvertElevationM: 2e-323 },
+    ],
+    dischargeM3s: 0.05000000000000004,
+    outlet: { kind: 'water-level', elevationM: 1.0623632883767337e-257 },
+    inlet: { kind: 'depth', depthM: 0.8682127162433432 },
+    junctionLossCoefficient: 7.449243843900211e-121,
+    kineticEnergyCoefficient: 1.1912464868113108,
+  };
+
+  it('is computed, closes the energy equation at every step, and stands at normal depth along the V-ditch', () => {
+    const result = computeChannelProfile(ditch);
+    if (!result.converged) throw new Error(`not computed: ${result.message}`);
+    expect(result.maximumEnergyResidualM).toBeLessThanOrEqual(result.energyToleranceM);
+    // Normal depth from Manning's equation by the uniform-flow solver (a separate module from the profile).
+    const reach = ditch.reaches[0]!;
+    const normal = solveNormalDepth(reach.section, { dischargeM3s: ditch.dischargeM3s, manningN: reach.manningN, bedSlope: reach.bedSlope });
+    if (!normal.converged) throw new Error('no normal depth');
+    const onDitch = result.points.filter((point) => point.reachIndex === 0);
+    // A few steps per 20 m, not millions: the profile is uniform flow over nearly all of the ditch.
+    expect(onDitch.length).toBeLessThan(500);
+    const atNormal = onDitch.filter((point) => Math.abs(point.depthM - normal.depthM) <= 1e-6);
+    expect(atNormal.length).toBeGreaterThan(onDitch.length / 2);
   });
 });
 
