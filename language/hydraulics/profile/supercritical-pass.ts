@@ -288,11 +288,19 @@ function marchSupercritical(
         jump: undefined,
       };
     case 'stopped': {
-      const count = stationsM.length;
+      // The march stopped at the first station where the subcritical depth, interpolated in the trace, carries more
+      // specific force; the refinement compares with depths stepped from the trace. Near critical depth the two
+      // can differ enough (a tenth of a millimetre on a curved M2 profile) that the forces already fail to balance
+      // at the station above: the bracket then moves up a station at a time until its upper end is one by the
+      // refinement's own depths, so the jump stands where they balance and loses head (found by the energy-balance
+      // property: a jump at Froude number 1.02 placed at the upper end gained 3 micrometres).
+      let count = stationsM.length;
+      let located = locateJump(reach, trace, stationsM[count - 2] ?? 0, depthsM[count - 2] ?? startDepthM, stationsM[count - 1] ?? 0);
+      while (count > 2 && located.stationM <= (stationsM[count - 2] ?? 0) && reachSpecificForceM3(flow, located.supercriticalDepthM) < reachSpecificForceM3(flow, located.subcriticalDepthM)) {
+        count--;
+        located = locateJump(reach, trace, stationsM[count - 2] ?? 0, depthsM[count - 2] ?? startDepthM, stationsM[count - 1] ?? 0);
+      }
       const upstreamStationM = stationsM[count - 2] ?? 0;
-      const upstreamDepthM = depthsM[count - 2] ?? startDepthM;
-      const downstreamStationM = stationsM[count - 1] ?? 0;
-      const located = locateJump(reach, trace, upstreamStationM, upstreamDepthM, downstreamStationM);
       // Where the backwater fills a conduit, the refinement can only end at the end of the full stretch (the
       // specific force below jumps there); if the water there still carries more specific force than the
       // supercritical flow, the flow cannot hold it back: the jump is driven up into the full conduit, which then

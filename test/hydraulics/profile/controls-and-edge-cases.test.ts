@@ -376,6 +376,45 @@ describe('a reach whose normal depth lies a hair from critical depth', () => {
   });
 });
 
+describe('a near-critical jump', () => {
+  it('stands where the specific forces balance and loses the head of a jump in a rectangle, (y2 - y1)^3 / (4 y1 y2) (found by the energy-balance property)', () => {
+    // The channel fast-check drew (its numbers): a 4.35 m rectangle into a 6.51 m one with a free fall. Supercritical
+    // flow begins at the widening and meets the M2 curve rising to critical depth at the brink in an undular jump
+    // at Froude number about 1.03. The march compared specific forces with the subcritical depth interpolated in
+    // its trace, the refinement with stepped depths; 0.09 mm apart here, so the refinement's bracket was no
+    // bracket and the jump was put where the water below pushes harder: a head gain of 3.2 micrometres.
+    const channel: ChannelProfileInput = {
+      reaches: [
+        { name: 'reach 1', section: rectangleSection({ bottomWidthM: 4.346898494970809 }), manningN: 0.01633995619341648, bedSlope: 0.0006330982097660996, lengthM: 339.3329404369042 },
+        { name: 'reach 2', section: rectangleSection({ bottomWidthM: 6.5091845170801985 }), manningN: 0.012766787672679204, bedSlope: 0.00022555277604497542, lengthM: 8.30445733710334 },
+      ],
+      dischargeM3s: 1.2611273756756542,
+      outlet: { kind: 'free-fall' },
+      inlet: { kind: 'normal-depth' },
+      junctionLossCoefficient: 0,
+      kineticEnergyCoefficient: 1,
+    };
+    const result = computeChannelProfile(channel);
+    if (!result.converged) throw new Error(`not computed: ${result.message}`);
+    const jump = result.jumps.find((candidate) => candidate.placement === 'within-reach');
+    if (jump === undefined) throw new Error('expected a jump in reach 2');
+    const y1 = jump.upstreamDepthM;
+    const y2 = jump.downstreamDepthM;
+    // Belanger: y2 / y1 = (sqrt(1 + 8 Fr1^2) - 1) / 2 for a rectangle (Chow 1959, Eq. 3-20), and the head lost in
+    // the jump (y2 - y1)^3 / (4 y1 y2) (Chow 1959, Eq. 15-3). The sequent depth to within the jump's station
+    // tolerance: 1 mm of station moves these depths by about 0.07 mm here (dy/dx near critical depth).
+    expect(y2 / y1).toBeCloseTo(belangerRatio(jump.upstreamFroudeNumber), 3);
+    expect(jump.energyLossM).toBeGreaterThan(0);
+    // The loss is the closed form's for the exact sequent depth, give or take what the depth's offset from it moves
+    // the specific energy: (1 - Fr2^2) per metre of depth (derived; 1.5 for the curvature over so small a step).
+    const sequentM = y1 * belangerRatio(jump.upstreamFroudeNumber);
+    const unitDischarge = channel.dischargeM3s / 6.5091845170801985;
+    const energySlope = Math.abs(1 - unitDischarge ** 2 / (GRAVITY_MS2 * y2 ** 3));
+    const belangerLossM = (sequentM - y1) ** 3 / (4 * y1 * sequentM);
+    expect(Math.abs(jump.energyLossM - belangerLossM)).toBeLessThanOrEqual(1.5 * energySlope * Math.abs(y2 - sequentM) + 1e-9);
+  });
+});
+
 describe('bad input never throws', () => {
   const reach = { name: 'r', section: rectangle, manningN: 0.015, bedSlope: 0.001, lengthM: 100 };
   const cases: readonly { label: string; input: ChannelProfileInput }[] = [
