@@ -6,10 +6,9 @@
  * timeout, which cannot stop synchronous code, then reports only "timed out", without the seed to replay it.
  */
 import fc from 'fast-check';
+import { FUZZ_SCALE } from '../robustness/fuzz-settings.js';
 
 /** Under vitest's 30 s test timeout (vitest.config.ts), so that fast-check's own report is the one shown. */
 export const PROPERTY_TIME_LIMIT_MS = 25_000;
 
-const scaleText = process.env['RUNNEL_FUZZ_SCALE'];
-const scale = scaleText !== undefined && Number(scaleText) > 0 ? Number(scaleText) : 1;
-fc.configureGlobal({ interruptAfterTimeLimit: PROPERTY_TIME_LIMIT_MS * scale, markInterruptAsFailure: true });
+fc.configureGlobal({ interruptAfterTimeLimit: PROPERTY_TIME_LIMIT_MS * FUZZ_SCALE, markInterruptAsFailure: true });

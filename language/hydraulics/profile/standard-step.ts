@@ -229,6 +229,19 @@ export interface ReachMarch {
 }
 
 /**
+ * A direct step (Chow 1959, Ch. 10): the step ends at `depthM` (critical or normal depth, whose energy and friction
+ * slope are in `target`) after `distanceM`, with the residual of the energy equation over that distance.
+ */
+function landOn(flow: ReachFlow, depthM: number, distanceM: number, sign: number, known: Readonly<EnergyFrictionState>, target: Readonly<EnergyFrictionState>, out: StepRecord): void {
+  out.kind = 'solved';
+  out.depthM = depthM;
+  out.residualM = target.specificEnergyM - known.specificEnergyM + sign * (flow.bedSlope - 0.5 * (known.frictionSlope + target.frictionSlope)) * distanceM;
+  out.specificEnergyM = target.specificEnergyM;
+  out.specificEnergySlope = target.specificEnergySlope;
+  out.frictionSlope = target.frictionSlope;
+}
+
+/**
  * Marches a profile from (startStationM, startDepthM) towards endStationM within one reach (stations in m from the
  * reach's upstream end): subcritical profiles upstream (endStationM < startStationM), supercritical downstream.
  * `visit` sees each new station; returning false stops the march there.
@@ -302,14 +315,9 @@ export function marchAlongReach(
           // lies a hair above or below critical depth, the profile closes on yn within micrometres, far shorter
           // than any step, and halving the step until it no longer crossed would crawl for millions of steps.
           evaluateEnergyFriction(flow, normalDepthM, scratch);
-          const frictionTerm = sign * (flow.bedSlope - 0.5 * (known.frictionSlope + scratch.frictionSlope));
-          const toNormalM = -(scratch.specificEnergyM - known.specificEnergyM) / frictionTerm;
+          const toNormalM = -(scratch.specificEnergyM - known.specificEnergyM) / (sign * (flow.bedSlope - 0.5 * (known.frictionSlope + scratch.frictionSlope)));
           if (toNormalM > negligibleDistanceM && toNormalM < trialM) {
-            step.depthM = normalDepthM;
-            step.residualM = scratch.specificEnergyM - known.specificEnergyM + frictionTerm * toNormalM;
-            step.specificEnergyM = scratch.specificEnergyM;
-            step.specificEnergySlope = scratch.specificEnergySlope;
-            step.frictionSlope = scratch.frictionSlope;
+            landOn(flow, normalDepthM, toNormalM, sign, known, scratch, step);
             trialM = toNormalM;
             accepted = true;
             continue;
@@ -325,12 +333,7 @@ export function marchAlongReach(
         if (landsOnCritical || toCriticalM <= negligibleDistanceM) {
           // The last step lands on critical depth: the direct step to yc, which closes the energy equation exactly.
           evaluateEnergyFriction(flow, flow.criticalDepthM, scratch);
-          step.kind = 'solved';
-          step.depthM = flow.criticalDepthM;
-          step.residualM = scratch.specificEnergyM - known.specificEnergyM + sign * (flow.bedSlope - 0.5 * (known.frictionSlope + scratch.frictionSlope)) * toCriticalM;
-          step.specificEnergyM = scratch.specificEnergyM;
-          step.specificEnergySlope = scratch.specificEnergySlope;
-          step.frictionSlope = scratch.frictionSlope;
+          landOn(flow, flow.criticalDepthM, toCriticalM, sign, known, scratch, step);
           trialM = toCriticalM;
           accepted = true;
           reachedCritical = true;

@@ -344,10 +344,10 @@ describe('a reach whose normal depth lies a hair from critical depth', () => {
   // Found by the energy-balance property (a random channel drawn by fast-check; the numbers are the drawn ones): a
   // 406 m V-ditch at 8 % with n = 0.05 carries 0.05 m3/s at a normal depth 1.1 micrometres above critical depth
   // (mild by 4e-6 of the depth, outside the critical class's rounding band). Near such a normal depth the gradually
-  // varied profile closes on yn within micrometres (dy/dx = (S0 - Sf) / (1 - Fr^2), both sides vanishing at yn and
-  // yc: Chow 1959, Sec. 9-1); the march used to halve every step that crossed yn, crawl in 0.1 mm steps and stop at
-  // the 5,000,000-step cap ("needed more steps than allowed"). It now lands on yn by the direct step and goes on in
-  // uniform flow.
+  // varied profile closes on yn within micrometres (dy/dx = (S0 - Sf) / (1 - Fr^2), numerator and denominator
+  // vanishing at yn and yc: Chow 1959, Ch. 9); the march used to halve every step that crossed yn, crawl in 0.1 mm
+  // steps and stop at the 5,000,000-step cap ("needed more steps than allowed"). It now lands on yn by the direct
+  // step and goes on in uniform flow.
   const ditch: ChannelProfileInput = {
     reaches: [
       { name: 'reach 1', section: triangleSection({ leftSideSlopeHV: 0.7603947737573663, rightSideSlopeHV: 0.7603947737573663 }), manningN: 0.049999999999999954, bedSlope: 0.08, lengthM: 406.3692733590663 },
@@ -400,15 +400,16 @@ describe('a near-critical jump', () => {
     if (jump === undefined) throw new Error('expected a jump in reach 2');
     const y1 = jump.upstreamDepthM;
     const y2 = jump.downstreamDepthM;
-    // Belanger: y2 / y1 = (sqrt(1 + 8 Fr1^2) - 1) / 2 for a rectangle (Chow 1959, Eq. 3-20), and the head lost in
-    // the jump (y2 - y1)^3 / (4 y1 y2) (Chow 1959, Eq. 15-3). The sequent depth to within the jump's station
+    // Belanger: y2 / y1 = (sqrt(1 + 8 Fr1^2) - 1) / 2 for a rectangle (derived from momentum: ../shared/REFERENCES.md),
+    // and the head lost in the jump (y2 - y1)^3 / (4 y1 y2) (derived from the energy and momentum equations for a
+    // rectangle: common practice). The sequent depth to within the jump's station
     // tolerance: 1 mm of station moves these depths by about 0.07 mm here (dy/dx near critical depth).
     expect(y2 / y1).toBeCloseTo(belangerRatio(jump.upstreamFroudeNumber), 3);
     expect(jump.energyLossM).toBeGreaterThan(0);
     // The loss is the closed form's for the exact sequent depth, give or take what the depth's offset from it moves
     // the specific energy: (1 - Fr2^2) per metre of depth (derived; 1.5 for the curvature over so small a step).
     const sequentM = y1 * belangerRatio(jump.upstreamFroudeNumber);
-    const unitDischarge = channel.dischargeM3s / 6.5091845170801985;
+    const unitDischarge = channel.dischargeM3s / channel.reaches[1]!.section.topWidthM(y2);
     const energySlope = Math.abs(1 - unitDischarge ** 2 / (GRAVITY_MS2 * y2 ** 3));
     const belangerLossM = (sequentM - y1) ** 3 / (4 * y1 * sequentM);
     expect(Math.abs(jump.energyLossM - belangerLossM)).toBeLessThanOrEqual(1.5 * energySlope * Math.abs(y2 - sequentM) + 1e-9);
