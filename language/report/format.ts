@@ -4,7 +4,7 @@
  * analysis' own formatter (language/analysis/format-quantity.ts), so a depth reads the same in hover, messages,
  * the CLI and the report.
  */
-import { formatNumber } from '../analysis/format-quantity.js';
+import { formatNumber, formatPowerOfTen, POWER_OF_TEN_FROM } from '../analysis/format-quantity.js';
 import { toDisplay, type Dimension, type UnitSystem } from '../units/units.js';
 
 /** Shown where a value does not exist (no normal depth, no bank height, ...). */
@@ -20,15 +20,15 @@ export const DEFAULT_SIGNIFICANT_FIGURES = 3;
 export function formatSignificant(value: number | null | undefined, significantFigures = DEFAULT_SIGNIFICANT_FIGURES): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return MISSING_VALUE;
   if (value === 0) return '0';
-  const magnitude = Math.abs(value);
-  if (magnitude >= 1e15 || magnitude < 1e-6) return formatExponent(value, significantFigures);
+  // Below 1e-6 (only ever seen from nonsense input) in powers of ten; the analysis formatter does so from 1e15 up.
+  if (Math.abs(value) < 1e-6) return formatPowerOfTen(value, significantFigures);
   return normaliseNegativeZero(formatNumber(value, significantFigures));
 }
 
 /** Formats with a fixed number of decimals (elevations, Froude numbers); non-finite or missing -> dash. */
 export function formatFixed(value: number | null | undefined, decimals: number): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return MISSING_VALUE;
-  if (Math.abs(value) >= 1e15) return formatExponent(value, decimals + 1);
+  if (Math.abs(value) >= POWER_OF_TEN_FROM) return formatPowerOfTen(value, decimals + 1);
   return normaliseNegativeZero(value.toFixed(decimals));
 }
 
@@ -77,11 +77,6 @@ export function formatTimestampUtc(date: Date): string {
   if (!Number.isFinite(date.getTime())) return MISSING_VALUE;
   const pad = (value: number): string => value.toString().padStart(2, '0');
   return `${date.getUTCFullYear()}-${pad(date.getUTCMonth() + 1)}-${pad(date.getUTCDate())} ${pad(date.getUTCHours())}:${pad(date.getUTCMinutes())} UTC`;
-}
-
-function formatExponent(value: number, significantFigures: number): string {
-  const [mantissa, exponent] = value.toExponential(Math.max(0, significantFigures - 1)).split('e');
-  return `${mantissa ?? ''} × 10^${Number(exponent ?? '0')}`;
 }
 
 function normaliseNegativeZero(text: string): string {

@@ -2,6 +2,7 @@
  * Units as written in design files: read to SI through the unit table, with exact factors (1 ft = 0.3048 m and
  * 1 in = 0.0254 m exactly, NIST SP 811 App. B; 1 lbf = 4.4482216152605 N exactly, NIST SP 811 App. B: derived).
  */
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { displayUnitsOf } from '../../language/analysis/analyze-design.js';
 import { formatNumber, formatQuantity } from '../../language/analysis/format-quantity.js';
@@ -76,5 +77,29 @@ describe('formatting numbers for messages', () => {
     expect(formatQuantity(0.3048, 'length', 'US')).toBe('1 ft');
     expect(formatQuantity(0.0035, 'slope', 'SI')).toBe('0.35 %');
     expect(formatQuantity(47.880258980335, 'shear', 'US')).toBe('1 psf');
+  });
+  it('shows every finite number so that it reads back to within its rounding, huge ones in powers of ten', () => {
+    // Rounding to n significant figures errs by at most half a unit in the nth figure, 0.5 x 10^(1-n) of the value
+    // (closed form; common practice). Whole numbers keep all their digits (error at most 0.5), and the decimals stop
+    // at ten (error at most 0.5e-10): both within the same bound or the absolute one. The text is read back as
+    // written: commas dropped, "× 10^" as an exponent.
+    // Powers of ten are compared mantissa to mantissa, since "2 × 10^308" (1.5e308 to one figure) does not fit a double.
+    const shownError = (text: string, value: number): number => {
+      const [mantissa = '', exponent] = text.split(' × 10^');
+      if (exponent === undefined) return Math.abs(Number(mantissa.replaceAll(',', '')) - value);
+      const scale = 10 ** Number(exponent);
+      return Math.abs(Number(mantissa) - value / scale) * scale;
+    };
+    fc.assert(
+      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 1, max: 6 }), (value, digits) => {
+        const bound = Math.max(0.5 * 10 ** (1 - digits) * Math.abs(value), 0.5e-10) * (1 + 1e-9);
+        expect(shownError(formatNumber(value, digits), value)).toBeLessThanOrEqual(bound);
+      }),
+      { numRuns: 20_000 },
+    );
+    // toFixed writes 1.5e300 as "1.5e+300"; trimming its "trailing zeros" once showed "1.5e+3".
+    expect(formatNumber(1.5e300)).toBe('1.50 × 10^300');
+    expect(formatNumber(-2.5e15)).toBe('-2.50 × 10^15');
+    expect(formatNumber(999_999_999_999_999)).toBe('999,999,999,999,999');
   });
 });
