@@ -5,6 +5,7 @@
  * curve (subcritical pass only), and four reaches alternating mild and steep (both passes, two hydraulic jumps).
  * Run through test/bench/run-all.ts, or alone with `npx tsx test/bench/profile.ts`.
  */
+import { pathToFileURL } from 'node:url';
 import { computeChannelProfile, type ChannelProfileInput } from '../../language/hydraulics/profile/index.js';
 import { trapezoidSection } from '../../language/hydraulics/sections/index.js';
 
@@ -83,4 +84,4 @@ export async function run(): Promise<void> {
 }
 
 // Allow `npx tsx test/bench/profile.ts` on its own.
-if (import.meta.url === `file://${process.argv[1]}`) await run();
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) await run();
