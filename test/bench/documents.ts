@@ -1,7 +1,8 @@
 import '../../language/polyfills/object-group-by.cjs'; // Object.groupBy for chevrotain 13 on Node 20: before Langium.
 /**
  * Document-scale speed of the language server: what one edit costs in a design of 50, 500 and 5,000 reaches with 3
- * design flows. Run with `npm run bench` (all bench modules) or `npx tsx test/bench/documents.ts`.
+ * design flows. Run with `npm run bench` (all bench modules) or `npm run bench -- documents`
+ * (from a bundle, as the code ships: run-all.ts; `npx tsx test/bench/documents.ts` runs the sources, slower).
  *
  * In process (the server's own services, no connection), after one edit to a reach's slope, median of the timed
  * edits, in CPU time of this process (the machine is shared: CPU time is what the work costs, wall time also

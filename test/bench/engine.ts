@@ -1,7 +1,8 @@
 /**
  * Engine speed: normal-depth and critical-depth solves per second and mean discharge (conveyance or section-factor)
  * evaluations per solve, for each section shape, beside a plain bisection solver held to the same tolerance and run
- * in the same process on the same cases. Run with `npm run bench` (all bench modules) or `npx tsx test/bench/engine.ts`.
+ * in the same process on the same cases. Run with `npm run bench` (all bench modules) or `npm run bench -- engine` (from a
+ * bundle, as the code ships: run-all.ts).
  *
  * Inputs are realistic design ranges (SI; "log" = log-uniform, others uniform), drawn from a fixed seed:
  * - rectangle (lined channel): width 0.3-6 m; Q 0.05-100 m3/s log; n 0.012-0.045; S 0.0005-0.03 log
