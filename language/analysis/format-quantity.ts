@@ -62,9 +62,10 @@ export function formatInUnit(valueSI: number, unitSymbol: string): string {
   return `${formatNumber(fromSI(valueSI, unitSymbol))} ${unitSymbol}`;
 }
 
-/** Froude numbers and other ratios: two decimals. */
+/** Froude numbers and other ratios: two decimals; from 1e15 up in powers of ten, as formatNumber. */
 export function formatRatio(value: number): string {
-  return Number.isFinite(value) ? value.toFixed(2) : NO_NUMBER_TEXT;
+  if (!Number.isFinite(value)) return NO_NUMBER_TEXT;
+  return Math.abs(value) >= POWER_OF_TEN_FROM ? formatPowerOfTen(value, 3) : value.toFixed(2);
 }
 
 /** A percentage of a fraction: 0.2 -> "20 %". */

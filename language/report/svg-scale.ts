@@ -5,6 +5,7 @@
  * the drawing itself and check that geometry and labels agree.
  */
 import { escapeHtml } from './escape.js';
+import { formatPowerOfTen, POWER_OF_TEN_FROM } from '../analysis/format-quantity.js';
 
 /** Where the plotting area lies inside the drawing, px (SVG user units). */
 /** Options every drawing takes. */
@@ -80,8 +81,9 @@ export function tickDecimals(step: number): number {
   return Number.isFinite(step) && step > 0 ? Math.min(8, Math.max(0, -Math.floor(Math.log10(step) + 1e-9))) : 0;
 }
 
-/** A tick label: the value with the decimals its step needs. */
+/** A tick label: the value with the decimals its step needs; from 1e15 up in powers of ten, as formatNumber. */
 export function formatTick(value: number, step: number): string {
+  if (Math.abs(value) >= POWER_OF_TEN_FROM) return formatPowerOfTen(value, 3);
   const text = value.toFixed(tickDecimals(step));
   return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
 }

@@ -28,7 +28,7 @@ import {
   type Section,
 } from '../../language/generated/ast.js';
 import { resolveLining, resolveSection } from '../../language/analysis/design-inputs.js';
-import { formatNumber, formatQuantity } from '../../language/analysis/format-quantity.js';
+import { formatNumber, formatQuantity, formatRatio } from '../../language/analysis/format-quantity.js';
 import type { DesignAnalysis, FlowResult, ReachResult, SectionResult } from '../../language/analysis/model.js';
 import { isQuantityNode, QUANTITY_DIMENSIONS, readQuantity, type QuantityNode } from '../../language/analysis/quantities.js';
 import { locationOf, sameLocation } from '../../language/analysis/source-locations.js';
@@ -229,7 +229,7 @@ function flowRow(reach: ReachResult, flow: FlowResult, system: UnitSystem): stri
     flow.normal === null ? '—' : formatQuantity(flow.normal.depth_m, 'length', system),
     flow.critical === null ? '—' : formatQuantity(flow.critical.depth_m, 'length', system),
     flow.normal === null ? '—' : formatQuantity(flow.normal.velocity_mps, 'velocity', system),
-    flow.normal === null ? '—' : flow.normal.froudeNumber.toFixed(2),
+    flow.normal === null ? '—' : formatRatio(flow.normal.froudeNumber),
     flow.status === 'pass' ? 'pass' : `${STATUS_MARKERS[flow.status]} ${escapeMarkdownInline(failedCheckNames(flow.findings).join(', '))}`,
   ];
   return `| ${cells.join(' | ')} |`;

@@ -5,7 +5,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { displayUnitsOf } from '../../language/analysis/analyze-design.js';
-import { formatNumber, formatQuantity } from '../../language/analysis/format-quantity.js';
+import { formatNumber, formatQuantity, formatRatio } from '../../language/analysis/format-quantity.js';
 import { readQuantity } from '../../language/analysis/quantities.js';
 import { isFlowTable, isSection, type Diameter, type Discharge } from '../../language/generated/ast.js';
 import { buildText } from './language-test-kit.js';
@@ -97,8 +97,17 @@ describe('formatting numbers for messages', () => {
       }),
       { numRuns: 20_000 },
     );
+    // Ratios (Froude numbers) show two decimals, an error of at most 0.005; from 1e15 up three figures as above.
+    fc.assert(
+      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }), (value) => {
+        const bound = Math.abs(value) >= 1e15 ? 0.5e-2 * Math.abs(value) * (1 + 1e-9) : 0.005 * (1 + 1e-9) + Math.abs(value) * 2 ** -52;
+        expect(shownError(formatRatio(value), value)).toBeLessThanOrEqual(bound);
+      }),
+      { numRuns: 20_000 },
+    );
     // toFixed writes 1.5e300 as "1.5e+300"; trimming its "trailing zeros" once showed "1.5e+3".
     expect(formatNumber(1.5e300)).toBe('1.50 × 10^300');
+    expect(formatRatio(2.5e21)).toBe('2.50 × 10^21');
     expect(formatNumber(-2.5e15)).toBe('-2.50 × 10^15');
     expect(formatNumber(999_999_999_999_999)).toBe('999,999,999,999,999');
   });

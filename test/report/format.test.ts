@@ -5,7 +5,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { formatNumber } from '../../language/analysis/format-quantity.js';
-import { niceTicks, px } from '../../language/report/svg-scale.js';
+import { formatTick, niceTicks, px } from '../../language/report/svg-scale.js';
 import { formatElevation, formatFixed, formatQuantity, formatSignificant, formatTimestampUtc, MISSING_VALUE } from '../../language/report/format.js';
 
 describe('report number formatting', () => {
@@ -73,5 +73,11 @@ describe('drawing coordinates', () => {
     );
     // The longest channel a double can hold: no tick beyond it overflows to Infinity.
     expect(niceTicks(0, 1.7976931348623157e308, 5).values.every(Number.isFinite)).toBe(true);
+  });
+
+  it('labels ticks from 1e15 up in powers of ten, as the messages show such numbers', () => {
+    expect(formatTick(2e300, 1e300)).toBe('2.00 × 10^300');
+    expect(formatTick(250, 50)).toBe('250');
+    expect(formatTick(-0, 0.5)).toBe('0.0');
   });
 });
