@@ -17,7 +17,15 @@
  * choose the next trial depth, never the acceptance, which is always the exact test on F.
  */
 import { DEPTH_SOLVE_MAX_ITERATIONS } from './constants.js';
-import type { SectionGeometry } from './sections/section-geometry.js';
+import {
+  newHydraulicTerms,
+  TERM_AREA,
+  TERM_TOP_WIDTH,
+  TERM_TOP_WIDTH_SLOPE,
+  TERM_WETTED_PERIMETER,
+  TERM_WETTED_PERIMETER_SLOPE,
+  type SectionGeometry,
+} from './sections/section-geometry.js';
 
 /** F = K^3 = A^3 R^2 (Manning conveyance cubed), m^8. */
 export const CONVEYANCE_CUBED = 0;
@@ -25,6 +33,9 @@ export const CONVEYANCE_CUBED = 0;
 export const SECTION_FACTOR_SQUARED = 1;
 /** F and dF/dy from a callback. */
 export const CUSTOM_FUNCTION = 2;
+
+/** The section's terms at the trial depth, filled by one call per evaluation (SectionGeometry.fillHydraulicTerms). */
+const terms = newHydraulicTerms();
 
 export type DepthEquation = typeof CONVEYANCE_CUBED | typeof SECTION_FACTOR_SQUARED | typeof CUSTOM_FUNCTION;
 
@@ -73,16 +84,18 @@ export function iterateDepth(
     let value: number;
     let logDerivative: number; // d ln F / dy, 1/m
     if (equation === CONVEYANCE_CUBED) {
-      const areaM2 = section!.areaM2(depthM);
-      const perimeterM = section!.wettedPerimeterM(depthM);
+      section!.fillHydraulicTerms(depthM, terms);
+      const areaM2 = terms[TERM_AREA]!;
+      const perimeterM = terms[TERM_WETTED_PERIMETER]!;
       const areaTimesRadius = areaM2 * (areaM2 / perimeterM);
       value = areaTimesRadius * areaTimesRadius * areaM2;
-      logDerivative = (5 * section!.topWidthM(depthM)) / areaM2 - (2 * section!.wettedPerimeterSlope(depthM)) / perimeterM;
+      logDerivative = (5 * terms[TERM_TOP_WIDTH]!) / areaM2 - (2 * terms[TERM_WETTED_PERIMETER_SLOPE]!) / perimeterM;
     } else if (equation === SECTION_FACTOR_SQUARED) {
-      const areaM2 = section!.areaM2(depthM);
-      const topWidthM = section!.topWidthM(depthM);
+      section!.fillHydraulicTerms(depthM, terms);
+      const areaM2 = terms[TERM_AREA]!;
+      const topWidthM = terms[TERM_TOP_WIDTH]!;
       value = areaM2 * areaM2 * (areaM2 / topWidthM);
-      logDerivative = (3 * topWidthM) / areaM2 - section!.topWidthSlope(depthM) / topWidthM;
+      logDerivative = (3 * topWidthM) / areaM2 - terms[TERM_TOP_WIDTH_SLOPE]! / topWidthM;
     } else {
       const point = evaluate!(depthM);
       value = point.value;

@@ -4,14 +4,21 @@
  * the engine (area = integral of top width, first moment = integral of top width times depth below the surface,
  * perimeter = arc length of the bed).
  */
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   circleSection,
   hydraulicDepthM,
   hydraulicRadiusM,
+  newHydraulicTerms,
   parabolaSection,
   rectangleSection,
   SECTION_FACTORIES,
+  TERM_AREA,
+  TERM_TOP_WIDTH,
+  TERM_TOP_WIDTH_SLOPE,
+  TERM_WETTED_PERIMETER,
+  TERM_WETTED_PERIMETER_SLOPE,
   trapezoidSection,
   triangleSection,
   type SectionGeometry,
@@ -158,6 +165,34 @@ describe('derivatives dP/dy and dT/dy against central differences', () => {
       expect(Math.abs(section.topWidthSlope(y) - topWidthSlope), `dT/dy at ${input}`).toBeLessThanOrEqual(1e-6 * (1 + Math.abs(topWidthSlope)));
       expectRelative({ id: 'T = dA/dy', source: 'definition of top width (derived)', input, value: section.topWidthM(y), expected: areaSlope, relativeTolerance: 1e-6, unit: 'm' });
     }
+  });
+});
+
+describe('the terms filled in one call are the five functions, bit for bit', () => {
+  // The solvers and the standard step read A, P, T, dP/dy and dT/dy through fillHydraulicTerms; every other reader
+  // calls the functions one by one. Both must give the same numbers, or a profile would disagree with its own checks.
+  const sections = fc.oneof(
+    fc.record({ bottomWidthM: fc.double({ min: 0.1, max: 20, noNaN: true }) }).map(rectangleSection),
+    fc
+      .record({ bottomWidthM: fc.double({ min: 0, max: 20, noNaN: true }), leftSideSlopeHV: fc.double({ min: 0, max: 6, noNaN: true }), rightSideSlopeHV: fc.double({ min: 0.1, max: 6, noNaN: true }) })
+      .map(trapezoidSection),
+    fc.record({ leftSideSlopeHV: fc.double({ min: 0, max: 6, noNaN: true }), rightSideSlopeHV: fc.double({ min: 0.1, max: 6, noNaN: true }) }).map(triangleSection),
+    fc.record({ topWidthM: fc.double({ min: 0.5, max: 20, noNaN: true }), atDepthM: fc.double({ min: 0.1, max: 3, noNaN: true }) }).map(parabolaSection),
+    fc.record({ diameterM: fc.double({ min: 0.1, max: 5, noNaN: true }) }).map(circleSection),
+  );
+  it('for every shape at depths from dry to above a crown', () => {
+    const terms = newHydraulicTerms();
+    fc.assert(
+      fc.property(sections, fc.double({ min: -1, max: 10, noNaN: true }), (section, depthM) => {
+        section.fillHydraulicTerms(depthM, terms);
+        expect(terms[TERM_AREA]).toBe(section.areaM2(depthM));
+        expect(terms[TERM_WETTED_PERIMETER]).toBe(section.wettedPerimeterM(depthM));
+        expect(terms[TERM_TOP_WIDTH]).toBe(section.topWidthM(depthM));
+        expect(terms[TERM_WETTED_PERIMETER_SLOPE]).toBe(section.wettedPerimeterSlope(depthM));
+        expect(terms[TERM_TOP_WIDTH_SLOPE]).toBe(section.topWidthSlope(depthM));
+      }),
+      { numRuns: 5000 },
+    );
   });
 });
 

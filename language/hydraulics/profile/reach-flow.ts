@@ -9,7 +9,7 @@
  */
 import { GRAVITY_MS2 } from '../constants.js';
 import { classifySlope, solveCriticalDepth, type SlopeClass } from '../critical-flow.js';
-import type { SectionGeometry } from '../sections/section-geometry.js';
+import { newHydraulicTerms, TERM_AREA, TERM_TOP_WIDTH, TERM_WETTED_PERIMETER, TERM_WETTED_PERIMETER_SLOPE, type SectionGeometry } from '../sections/section-geometry.js';
 import { solveNormalDepth } from '../uniform-flow.js';
 
 export interface ReachFlow {
@@ -116,12 +116,15 @@ export function newEnergyFrictionState(): EnergyFrictionState {
   return { specificEnergyM: 0, specificEnergySlope: 0, frictionSlope: 0, frictionSlopeDerivative: 0 };
 }
 
+/** The section's terms at the depth being evaluated, filled by one call (SectionGeometry.fillHydraulicTerms). */
+const terms = newHydraulicTerms();
+
 /** Fills `state` with E, dE/dy, Sf and dSf/dy at a depth. */
 export function evaluateEnergyFriction(flow: ReachFlow, depthM: number, state: EnergyFrictionState): void {
-  const section = flow.section;
-  const areaM2 = section.areaM2(depthM);
-  const perimeterM = section.wettedPerimeterM(depthM);
-  const topWidthM = section.topWidthM(depthM);
+  flow.section.fillHydraulicTerms(depthM, terms);
+  const areaM2 = terms[TERM_AREA]!;
+  const perimeterM = terms[TERM_WETTED_PERIMETER]!;
+  const topWidthM = terms[TERM_TOP_WIDTH]!;
   const q = flow.dischargeM3s;
   const alphaQ2OverG = (flow.kineticEnergyCoefficient * q * q) / GRAVITY_MS2;
   const inverseArea2 = 1 / (areaM2 * areaM2);
@@ -131,5 +134,5 @@ export function evaluateEnergyFriction(flow: ReachFlow, depthM: number, state: E
   const ratio = (q * flow.manningN) / conveyance;
   const sf = ratio * ratio;
   state.frictionSlope = sf;
-  state.frictionSlopeDerivative = -2 * sf * ((5 * topWidthM) / (3 * areaM2) - (2 * section.wettedPerimeterSlope(depthM)) / (3 * perimeterM));
+  state.frictionSlopeDerivative = -2 * sf * ((5 * topWidthM) / (3 * areaM2) - (2 * terms[TERM_WETTED_PERIMETER_SLOPE]!) / (3 * perimeterM));
 }

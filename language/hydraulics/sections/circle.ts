@@ -14,7 +14,17 @@
  * (built once when the module loads) of ln K/D^(8/3) and ln Z/D^(5/2) against the logit u = ln(s / (1 - s)),
  * read backwards by cubic Hermite interpolation. The conveyance peak (s = 0.9382) is found on the same table.
  */
-import { positiveLengthProblem, type ConduitConveyance, type SectionGeometry, type SectionSolverHints } from './section-geometry.js';
+import {
+  positiveLengthProblem,
+  TERM_AREA,
+  TERM_TOP_WIDTH,
+  TERM_TOP_WIDTH_SLOPE,
+  TERM_WETTED_PERIMETER,
+  TERM_WETTED_PERIMETER_SLOPE,
+  type ConduitConveyance,
+  type SectionGeometry,
+  type SectionSolverHints,
+} from './section-geometry.js';
 
 export interface CircleDimensions {
   readonly diameterM: number;
@@ -23,27 +33,40 @@ export interface CircleDimensions {
 export function circleSection({ diameterM }: CircleDimensions): SectionGeometry {
   const dimensionProblem = positiveLengthProblem('diameter', diameterM);
   const clamp = (y: number): number => (y > 0 ? (y < diameterM ? y : diameterM) : 0);
+  const topWidthM = (y: number): number => {
+    const depthM = clamp(y);
+    return 2 * Math.sqrt(depthM * (diameterM - depthM));
+  };
+  // dP/dy = (D/2) dtheta/dy = D / sqrt(y (D - y)).
+  const wettedPerimeterSlope = (y: number): number => {
+    const depthM = clamp(y);
+    return diameterM / Math.sqrt(depthM * (diameterM - depthM));
+  };
+  // T = 2 sqrt(y (D - y)), so dT/dy = (D - 2y) / sqrt(y (D - y)).
+  const topWidthSlope = (y: number): number => {
+    const depthM = clamp(y);
+    const gapM = diameterM - depthM;
+    return (gapM - depthM) / Math.sqrt(depthM * gapM);
+  };
   return {
     shape: 'circle',
     description: `circular conduit, diameter ${Number(diameterM.toPrecision(4))} m`,
     fullDepthM: diameterM,
     areaM2: (y) => diameterM * diameterM * unitArea(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM),
     wettedPerimeterM: (y) => (diameterM * centralAngle(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM)) / 2,
-    topWidthM: (y) => {
-      const depthM = clamp(y);
-      return 2 * Math.sqrt(depthM * (diameterM - depthM));
-    },
+    topWidthM,
     firstMomentM3: (y) => diameterM ** 3 * unitFirstMoment(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM),
-    // dP/dy = (D/2) dtheta/dy = D / sqrt(y (D - y)).
-    wettedPerimeterSlope: (y) => {
+    wettedPerimeterSlope,
+    topWidthSlope,
+    // The central angle once for area and perimeter (the same expressions as areaM2 and wettedPerimeterM).
+    fillHydraulicTerms: (y, terms) => {
       const depthM = clamp(y);
-      return diameterM / Math.sqrt(depthM * (diameterM - depthM));
-    },
-    // T = 2 sqrt(y (D - y)), so dT/dy = (D - 2y) / sqrt(y (D - y)).
-    topWidthSlope: (y) => {
-      const depthM = clamp(y);
-      const gapM = diameterM - depthM;
-      return (gapM - depthM) / Math.sqrt(depthM * gapM);
+      const theta = centralAngle(depthM / diameterM, (diameterM - depthM) / diameterM);
+      terms[TERM_AREA] = diameterM * diameterM * unitAreaOfAngle(theta);
+      terms[TERM_WETTED_PERIMETER] = (diameterM * theta) / 2;
+      terms[TERM_TOP_WIDTH] = topWidthM(y);
+      terms[TERM_WETTED_PERIMETER_SLOPE] = wettedPerimeterSlope(y);
+      terms[TERM_TOP_WIDTH_SLOPE] = topWidthSlope(y);
     },
     dimensionProblem,
     solverHints: dimensionProblem === undefined ? circleHints(diameterM) : undefined,
@@ -70,7 +93,12 @@ function angleMinusSine(theta: number): number {
 
 /** A / D^2. */
 function unitArea(s: number, gap: number): number {
-  return angleMinusSine(centralAngle(s, gap)) / 8;
+  return unitAreaOfAngle(centralAngle(s, gap));
+}
+
+/** A / D^2 for a central angle theta: (theta - sin theta) / 8. */
+function unitAreaOfAngle(theta: number): number {
+  return angleMinusSine(theta) / 8;
 }
 
 /** Coefficients of (1 - x)^(1/2) = sum a_k x^k divided by (k + 3/2)(k + 5/2), for the first-moment series. */

@@ -7,7 +7,7 @@
  * Critical depth has a closed form: with T = c sqrt(y), c = Tr / sqrt(yr), the section factor is
  * Z = A sqrt(A/T) = (2/3)^(3/2) c y^2.
  */
-import { positiveLengthProblem, type SectionGeometry } from './section-geometry.js';
+import { positiveLengthProblem, TERM_AREA, TERM_TOP_WIDTH, TERM_TOP_WIDTH_SLOPE, TERM_WETTED_PERIMETER, TERM_WETTED_PERIMETER_SLOPE, type SectionGeometry } from './section-geometry.js';
 
 export interface ParabolaDimensions {
   readonly topWidthM: number;
@@ -26,25 +26,36 @@ export function parabolaSection({ topWidthM: referenceTopWidthM, atDepthM: refer
   const logShallowCoefficient = (5 / 3) * Math.log(2 / 3) + Math.log(widthCoefficient);
   const logDeepCoefficient = (5 / 3) * Math.log((2 / 3) * widthCoefficient) - (2 / 3) * Math.log(2);
   const criticalCoefficient = (2 / 3) ** 1.5 * widthCoefficient;
+  const areaM2 = (y: number): number => (2 / 3) * topWidthM(y) * y;
+  const wettedPerimeterM = (y: number): number => {
+    const halfWidthM = topWidthM(y) / 2;
+    const kx = curvature * halfWidthM;
+    return halfWidthM * Math.sqrt(1 + kx * kx) + Math.asinh(kx) / curvature;
+  };
+  // dP/dy = 2 sqrt(1 + (dx/dy)^2) with dx/dy = a / (2 sqrt y).
+  const wettedPerimeterSlope = (y: number): number => {
+    if (y <= 0) return Number.POSITIVE_INFINITY;
+    const dxdy = halfWidthCoefficient / (2 * Math.sqrt(y));
+    return 2 * Math.sqrt(1 + dxdy * dxdy);
+  };
+  const topWidthSlope = (y: number): number => (y > 0 ? topWidthM(y) / (2 * y) : Number.POSITIVE_INFINITY);
   return {
     shape: 'parabola',
     description: `parabola, top width ${Number(referenceTopWidthM.toPrecision(4))} m at depth ${Number(referenceDepthM.toPrecision(4))} m`,
     fullDepthM: undefined,
-    areaM2: (y) => (2 / 3) * topWidthM(y) * y,
-    wettedPerimeterM: (y) => {
-      const halfWidthM = topWidthM(y) / 2;
-      const kx = curvature * halfWidthM;
-      return halfWidthM * Math.sqrt(1 + kx * kx) + Math.asinh(kx) / curvature;
-    },
+    areaM2,
+    wettedPerimeterM,
     topWidthM,
     firstMomentM3: (y) => (4 / 15) * topWidthM(y) * y * y,
-    // dP/dy = 2 sqrt(1 + (dx/dy)^2) with dx/dy = a / (2 sqrt y).
-    wettedPerimeterSlope: (y) => {
-      if (y <= 0) return Number.POSITIVE_INFINITY;
-      const dxdy = halfWidthCoefficient / (2 * Math.sqrt(y));
-      return 2 * Math.sqrt(1 + dxdy * dxdy);
+    wettedPerimeterSlope,
+    topWidthSlope,
+    fillHydraulicTerms: (y, terms) => {
+      terms[TERM_AREA] = areaM2(y);
+      terms[TERM_WETTED_PERIMETER] = wettedPerimeterM(y);
+      terms[TERM_TOP_WIDTH] = topWidthM(y);
+      terms[TERM_WETTED_PERIMETER_SLOPE] = wettedPerimeterSlope(y);
+      terms[TERM_TOP_WIDTH_SLOPE] = topWidthSlope(y);
     },
-    topWidthSlope: (y) => (y > 0 ? topWidthM(y) / (2 * y) : Number.POSITIVE_INFINITY),
     dimensionProblem: positiveLengthProblem('reference top width', referenceTopWidthM) ?? positiveLengthProblem('reference depth', referenceDepthM),
     solverHints: {
       normalDepthEstimateM: (conveyanceM83) => {

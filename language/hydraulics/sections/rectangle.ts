@@ -2,7 +2,7 @@
  * Rectangular open channel: bottom width b (m), vertical walls. A = b y, P = b + 2y, T = b (Chow 1959, Table 2-1).
  * Critical depth has the closed form yc = (q^2 / g)^(1/3), q = Q / b, i.e. y = (Z / b)^(2/3) for section factor Z.
  */
-import { positiveLengthProblem, type SectionGeometry } from './section-geometry.js';
+import { positiveLengthProblem, TERM_AREA, TERM_TOP_WIDTH, TERM_TOP_WIDTH_SLOPE, TERM_WETTED_PERIMETER, TERM_WETTED_PERIMETER_SLOPE, type SectionGeometry } from './section-geometry.js';
 
 export interface RectangleDimensions {
   readonly bottomWidthM: number;
@@ -11,16 +11,25 @@ export interface RectangleDimensions {
 export function rectangleSection({ bottomWidthM }: RectangleDimensions): SectionGeometry {
   const logBottomWidth = Math.log(bottomWidthM);
   const narrowConveyancePerDepth = bottomWidthM ** (5 / 3) / 2 ** (2 / 3);
+  const areaM2 = (y: number): number => bottomWidthM * y;
+  const wettedPerimeterM = (y: number): number => bottomWidthM + 2 * y;
   return {
     shape: 'rectangle',
     description: `rectangle, width ${round(bottomWidthM)} m`,
     fullDepthM: undefined,
-    areaM2: (y) => bottomWidthM * y,
-    wettedPerimeterM: (y) => bottomWidthM + 2 * y,
+    areaM2,
+    wettedPerimeterM,
     topWidthM: () => bottomWidthM,
     firstMomentM3: (y) => (bottomWidthM * y * y) / 2,
     wettedPerimeterSlope: () => 2,
     topWidthSlope: () => 0,
+    fillHydraulicTerms: (y, terms) => {
+      terms[TERM_AREA] = areaM2(y);
+      terms[TERM_WETTED_PERIMETER] = wettedPerimeterM(y);
+      terms[TERM_TOP_WIDTH] = bottomWidthM;
+      terms[TERM_WETTED_PERIMETER_SLOPE] = 2;
+      terms[TERM_TOP_WIDTH_SLOPE] = 0;
+    },
     dimensionProblem: positiveLengthProblem('bottom width', bottomWidthM),
     solverHints: {
       // Starts from the two limits: wide (P ~ b, K = b y^(5/3)) and narrow (P ~ 2y, K = b^(5/3) 2^(-2/3) y). P

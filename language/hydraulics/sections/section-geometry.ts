@@ -25,6 +25,14 @@ export interface SectionGeometry {
   /** dT/dy, dimensionless (for Newton steps on the critical-flow section factor). */
   topWidthSlope(depthM: number): number;
   /**
+   * A, P, T, dP/dy and dT/dy at one depth, written into `terms` at the TERM_* slots: the values of the five
+   * functions above, bit for bit, from one call. Why: the depth solvers and the standard step evaluate sections of
+   * every shape in turn, and a call through a section object whose shape keeps changing is a full call each time;
+   * one such call whose body calls the shape's own functions costs one (measured: trapezoid normal depths solved
+   * after rectangles, 1.6 to 1.9 million per second with five calls, 2.2 to 2.3 million with one).
+   */
+  fillHydraulicTerms(depthM: number, terms: Float64Array): void;
+  /**
    * Why these dimensions cannot describe a channel (one sentence, SI), or undefined when they can. The factories
    * never throw on bad numbers; the solvers turn this into an 'invalid-input' result instead.
    */
@@ -45,6 +53,18 @@ export interface SectionSolverHints {
   criticalDepthEstimateM?(sectionFactorM52: number): number;
   /** Closed shapes: where conveyance peaks and its values there and flowing full (else found numerically). */
   readonly conduitConveyance?: ConduitConveyance;
+}
+
+/** Slots of the array SectionGeometry.fillHydraulicTerms writes (newHydraulicTerms makes one). */
+export const TERM_AREA = 0;
+export const TERM_WETTED_PERIMETER = 1;
+export const TERM_TOP_WIDTH = 2;
+export const TERM_WETTED_PERIMETER_SLOPE = 3;
+export const TERM_TOP_WIDTH_SLOPE = 4;
+
+/** An array for SectionGeometry.fillHydraulicTerms (hot loops keep one and reuse it). */
+export function newHydraulicTerms(): Float64Array {
+  return new Float64Array(5);
 }
 
 /** Conveyance facts of a closed conduit (constant n). */

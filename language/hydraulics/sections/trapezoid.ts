@@ -4,7 +4,17 @@
  * T = b + (zL + zR) y (Chow 1959, Table 2-1, generalised to unequal sides). b = 0 is a V-ditch and zL = zR = 0 a
  * rectangle; both sides vertical with no bottom is not a channel.
  */
-import { positiveLengthProblem, sideSlopeProblem, type SectionGeometry, type SectionSolverHints } from './section-geometry.js';
+import {
+  positiveLengthProblem,
+  sideSlopeProblem,
+  TERM_AREA,
+  TERM_TOP_WIDTH,
+  TERM_TOP_WIDTH_SLOPE,
+  TERM_WETTED_PERIMETER,
+  TERM_WETTED_PERIMETER_SLOPE,
+  type SectionGeometry,
+  type SectionSolverHints,
+} from './section-geometry.js';
 
 export interface TrapezoidDimensions {
   readonly bottomWidthM: number;
@@ -16,17 +26,27 @@ export function trapezoidSection(dimensions: TrapezoidDimensions): SectionGeomet
   const { bottomWidthM, leftSideSlopeHV, rightSideSlopeHV } = dimensions;
   const sideSlopeSum = leftSideSlopeHV + rightSideSlopeHV;
   const sideLengthPerDepth = Math.hypot(1, leftSideSlopeHV) + Math.hypot(1, rightSideSlopeHV);
+  const areaM2 = (y: number): number => y * (bottomWidthM + (sideSlopeSum * y) / 2);
+  const wettedPerimeterM = (y: number): number => bottomWidthM + sideLengthPerDepth * y;
+  const topWidthM = (y: number): number => bottomWidthM + sideSlopeSum * y;
   return {
     shape: 'trapezoid',
     description: `trapezoid, bottom ${Number(bottomWidthM.toPrecision(4))} m, sides ${leftSideSlopeHV}:1 and ${rightSideSlopeHV}:1 (H:V)`,
     fullDepthM: undefined,
-    areaM2: (y) => y * (bottomWidthM + (sideSlopeSum * y) / 2),
-    wettedPerimeterM: (y) => bottomWidthM + sideLengthPerDepth * y,
-    topWidthM: (y) => bottomWidthM + sideSlopeSum * y,
+    areaM2,
+    wettedPerimeterM,
+    topWidthM,
     // Rectangle part b y^2/2 plus the two side triangles, each z y^2/2 with centroid y/3 below the surface.
     firstMomentM3: (y) => (bottomWidthM * y * y) / 2 + (sideSlopeSum * y * y * y) / 6,
     wettedPerimeterSlope: () => sideLengthPerDepth,
     topWidthSlope: () => sideSlopeSum,
+    fillHydraulicTerms: (y, terms) => {
+      terms[TERM_AREA] = areaM2(y);
+      terms[TERM_WETTED_PERIMETER] = wettedPerimeterM(y);
+      terms[TERM_TOP_WIDTH] = topWidthM(y);
+      terms[TERM_WETTED_PERIMETER_SLOPE] = sideLengthPerDepth;
+      terms[TERM_TOP_WIDTH_SLOPE] = sideSlopeSum;
+    },
     dimensionProblem: trapezoidProblem(bottomWidthM, leftSideSlopeHV, rightSideSlopeHV),
     solverHints: trapezoidEstimates(bottomWidthM, sideSlopeSum, sideLengthPerDepth),
   };

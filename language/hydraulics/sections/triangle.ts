@@ -5,7 +5,7 @@
  * conveyance K = (Zs/2)^(5/3) m^(-2/3) y^(8/3) and section factor Z = Zs y^(5/2) / 2^(3/2), with Zs = zL + zR and
  * m = sqrt(1 + zL^2) + sqrt(1 + zR^2).
  */
-import { sideSlopeProblem, type SectionGeometry } from './section-geometry.js';
+import { sideSlopeProblem, TERM_AREA, TERM_TOP_WIDTH, TERM_TOP_WIDTH_SLOPE, TERM_WETTED_PERIMETER, TERM_WETTED_PERIMETER_SLOPE, type SectionGeometry } from './section-geometry.js';
 
 export interface TriangleDimensions {
   readonly leftSideSlopeHV: number;
@@ -18,16 +18,26 @@ export function triangleSection({ leftSideSlopeHV, rightSideSlopeHV }: TriangleD
   // ln of the coefficients in K = cK y^(8/3) and Z = cZ y^(5/2).
   const logConveyanceCoefficient = (5 / 3) * Math.log(sideSlopeSum / 2) - (2 / 3) * Math.log(sideLengthPerDepth);
   const logSectionFactorCoefficient = Math.log(sideSlopeSum / 2 ** 1.5);
+  const areaM2 = (y: number): number => (sideSlopeSum * y * y) / 2;
+  const wettedPerimeterM = (y: number): number => sideLengthPerDepth * y;
+  const topWidthM = (y: number): number => sideSlopeSum * y;
   return {
     shape: 'triangle',
     description: `triangle (V-ditch), sides ${leftSideSlopeHV}:1 and ${rightSideSlopeHV}:1 (H:V)`,
     fullDepthM: undefined,
-    areaM2: (y) => (sideSlopeSum * y * y) / 2,
-    wettedPerimeterM: (y) => sideLengthPerDepth * y,
-    topWidthM: (y) => sideSlopeSum * y,
+    areaM2,
+    wettedPerimeterM,
+    topWidthM,
     firstMomentM3: (y) => (sideSlopeSum * y * y * y) / 6,
     wettedPerimeterSlope: () => sideLengthPerDepth,
     topWidthSlope: () => sideSlopeSum,
+    fillHydraulicTerms: (y, terms) => {
+      terms[TERM_AREA] = areaM2(y);
+      terms[TERM_WETTED_PERIMETER] = wettedPerimeterM(y);
+      terms[TERM_TOP_WIDTH] = topWidthM(y);
+      terms[TERM_WETTED_PERIMETER_SLOPE] = sideLengthPerDepth;
+      terms[TERM_TOP_WIDTH_SLOPE] = sideSlopeSum;
+    },
     dimensionProblem:
       sideSlopeProblem('left side slope', leftSideSlopeHV) ??
       sideSlopeProblem('right side slope', rightSideSlopeHV) ??
