@@ -28,8 +28,9 @@ export interface SectionGeometry {
    * A, P, T, dP/dy and dT/dy at one depth, written into `terms` at the TERM_* slots: the values of the five
    * functions above, bit for bit, from one call. Why: the depth solvers and the standard step evaluate sections of
    * every shape in turn, and a call through a section object whose shape keeps changing is a full call each time;
-   * one such call whose body calls the shape's own functions costs one (measured: trapezoid normal depths solved
-   * after rectangles, 1.6 to 1.9 million per second with five calls, 2.2 to 2.3 million with one).
+   * one such call whose body calls the shape's own functions costs one (measured over alternating runs of the
+   * engine benchmark, trapezoid normal depths solved after rectangles: medians about 2.1 million per second with a
+   * call per term, 2.45 million with one call).
    */
   fillHydraulicTerms(depthM: number, terms: Float64Array): void;
   /**
