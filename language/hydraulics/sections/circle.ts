@@ -33,6 +33,9 @@ export interface CircleDimensions {
 export function circleSection({ diameterM }: CircleDimensions): SectionGeometry {
   const dimensionProblem = positiveLengthProblem('diameter', diameterM);
   const clamp = (y: number): number => (y > 0 ? (y < diameterM ? y : diameterM) : 0);
+  // The central angle of the wetted arc at depth y, and P = D theta / 2 from it.
+  const wettedAngle = (y: number): number => centralAngle(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM);
+  const perimeterOfAngle = (theta: number): number => (diameterM * theta) / 2;
   const topWidthM = (y: number): number => {
     const depthM = clamp(y);
     return 2 * Math.sqrt(depthM * (diameterM - depthM));
@@ -52,18 +55,17 @@ export function circleSection({ diameterM }: CircleDimensions): SectionGeometry 
     shape: 'circle',
     description: `circular conduit, diameter ${Number(diameterM.toPrecision(4))} m`,
     fullDepthM: diameterM,
-    areaM2: (y) => diameterM * diameterM * unitArea(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM),
-    wettedPerimeterM: (y) => (diameterM * centralAngle(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM)) / 2,
+    areaM2: (y) => diameterM * diameterM * unitAreaOfAngle(wettedAngle(y)),
+    wettedPerimeterM: (y) => perimeterOfAngle(wettedAngle(y)),
     topWidthM,
     firstMomentM3: (y) => diameterM ** 3 * unitFirstMoment(clamp(y) / diameterM, (diameterM - clamp(y)) / diameterM),
     wettedPerimeterSlope,
     topWidthSlope,
-    // The central angle once for area and perimeter (the same expressions as areaM2 and wettedPerimeterM).
+    // The central angle once for area and perimeter.
     fillHydraulicTerms: (y, terms) => {
-      const depthM = clamp(y);
-      const theta = centralAngle(depthM / diameterM, (diameterM - depthM) / diameterM);
+      const theta = wettedAngle(y);
       terms[TERM_AREA] = diameterM * diameterM * unitAreaOfAngle(theta);
-      terms[TERM_WETTED_PERIMETER] = (diameterM * theta) / 2;
+      terms[TERM_WETTED_PERIMETER] = perimeterOfAngle(theta);
       terms[TERM_TOP_WIDTH] = topWidthM(y);
       terms[TERM_WETTED_PERIMETER_SLOPE] = wettedPerimeterSlope(y);
       terms[TERM_TOP_WIDTH_SLOPE] = topWidthSlope(y);
