@@ -3,3 +3,5 @@ import type { BuildOptions } from 'esbuild';
 export declare const IMPORT_META_URL_SHIM: string;
 export declare const NODE_BUNDLE_OPTIONS: Readonly<BuildOptions>;
 export declare const CLI_BANNER: Readonly<{ js: string }>;
+export declare const CLI_BUNDLE_FILE: string;
+export declare const CODE_CACHE_SUFFIX: string;

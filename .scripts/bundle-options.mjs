@@ -20,3 +20,9 @@ export const NODE_BUNDLE_OPTIONS = Object.freeze({
 
 /** The banner of the `runnel` CLI bundle: a shebang, then the shim. */
 export const CLI_BANNER = Object.freeze({ js: `#!/usr/bin/env node\n${IMPORT_META_URL_SHIM}` });
+
+/** The CLI bundle's file, beside the `runnel` launcher (dist/runnel.cjs, server/cli-launcher.ts) that runs it. */
+export const CLI_BUNDLE_FILE = 'runnel-cli.cjs';
+
+/** Suffix of the CLI bundle's code-cache file, kept beside the bundle by the launcher. */
+export const CODE_CACHE_SUFFIX = '.code-cache';
