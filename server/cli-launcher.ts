@@ -13,7 +13,7 @@
 // flags) is replaced at the end of the run. No cache file, an unreadable or unwritable one: the CLI runs as without
 // the launcher. The file lives beside the bundle, where only those who can change the bundle can write.
 import { createHash } from 'node:crypto';
-import { readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -58,7 +58,15 @@ function cachedDataFor(cachePath: string, digest: Buffer): Buffer | undefined {
 function writeCodeCache(script: Script, cachePath: string, digest: Buffer): void {
   const temporary = `${cachePath}.${process.pid}.tmp`;
   try {
-    writeFileSync(temporary, Buffer.concat([digest, script.createCachedData()]));
+    // Open the file before serialising the code, which takes tens of milliseconds: a folder we may not write to
+    // costs every run nothing but a failed open.
+    const file = openSync(temporary, 'wx');
+    try {
+      writeSync(file, digest);
+      writeSync(file, script.createCachedData());
+    } finally {
+      closeSync(file);
+    }
     renameSync(temporary, cachePath);
   } catch {
     // A folder we may not write to (an installation owned by another user): run without a cache.
