@@ -4,20 +4,22 @@
 import { build } from 'esbuild';
 import { spawnSync } from 'node:child_process';
 import { chmodSync } from 'node:fs';
-import { CLI_BANNER, CLI_BUNDLE_FILE, NODE_BUNDLE_OPTIONS } from './bundle-options.mjs';
+import { CLI_BANNER, CLI_BUNDLE_FILE, NODE_BUNDLE_OPTIONS, SERVER_BUNDLE_FILE } from './bundle-options.mjs';
 
 const common = { ...NODE_BUNDLE_OPTIONS, minify: process.argv.includes('--minify') };
 
 await Promise.all([
-  build({ ...common, entryPoints: ['server/language-server.ts'], outfile: 'dist/server.cjs' }),
-  // The `runnel` command: a small launcher (dist/runnel.cjs) that runs the CLI bundle through V8's code cache.
+  // The language server and the `runnel` command: each a small launcher that runs its bundle through V8's code cache
+  // (server/code-cache.ts).
+  build({ ...common, entryPoints: ['server/language-server.ts'], outfile: `dist/${SERVER_BUNDLE_FILE}` }),
+  build({ ...common, entryPoints: ['server/server-launcher.ts'], outfile: 'dist/server.cjs' }),
   build({ ...common, entryPoints: ['server/cli.ts'], outfile: `dist/${CLI_BUNDLE_FILE}` }),
   build({ ...common, entryPoints: ['server/cli-launcher.ts'], outfile: 'dist/runnel.cjs', banner: CLI_BANNER }),
   build({ ...common, entryPoints: ['extension/extension.ts'], outfile: 'dist/extension.cjs', external: ['vscode'] }),
 ]);
 chmodSync('dist/runnel.cjs', 0o755);
 
-// Write the CLI's code cache now (server/cli-launcher.ts) by checking one sample, so that the first `runnel` start
+// Write the CLI's code cache now (server/code-cache.ts) by checking one sample, so that the first `runnel` start
 // after a build is as quick as the next: a run with no cache writes one covering only the functions it ran (the
 // cache of an earlier build is for another bundle and is replaced).
 const warmUp = spawnSync(process.execPath, ['dist/runnel.cjs', 'check', 'samples/roadside-ditches.runnel', 'samples/linings.runnel'], { encoding: 'utf8' });

@@ -5,3 +5,4 @@ export declare const NODE_BUNDLE_OPTIONS: Readonly<BuildOptions>;
 export declare const CLI_BANNER: Readonly<{ js: string }>;
 export declare const CLI_BUNDLE_FILE: string;
 export declare const CODE_CACHE_SUFFIX: string;
+export declare const SERVER_BUNDLE_FILE: string;

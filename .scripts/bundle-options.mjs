@@ -26,3 +26,6 @@ export const CLI_BUNDLE_FILE = 'runnel-cli.cjs';
 
 /** Suffix of the CLI bundle's code-cache file, kept beside the bundle by the launcher. */
 export const CODE_CACHE_SUFFIX = '.code-cache';
+
+/** The language server's bundle, beside its launcher (dist/server.cjs, server/server-launcher.ts) that runs it. */
+export const SERVER_BUNDLE_FILE = 'runnel-server.cjs';

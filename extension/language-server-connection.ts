@@ -1,5 +1,5 @@
 /**
- * Starts the bundled Runnel language server (dist/server.cjs, Node IPC) and carries Runnel's own requests to it.
+ * Starts the bundled Runnel language server (dist/server.cjs, Node IPC; the bundle itself when debugging) and carries Runnel's own requests to it.
  * What the user sees: diagnostics, hints, hover and the rest come from the server through the language client;
  * the language status item says whether the server runs; every start, stop and failure is logged to the "Runnel"
  * output channel, which never steals focus. Starting never blocks activation: commands wait for the server.
@@ -29,7 +29,7 @@ import {
   type ResultsMarkdownParams,
   type ResultsMarkdownResult,
 } from '../server/protocol.js';
-import { COMMAND_IDS, LANGUAGE_ID, SERVER_BUNDLE_PATH } from './identifiers.js';
+import { COMMAND_IDS, LANGUAGE_ID, SERVER_BUNDLE_PATH, SERVER_DEBUG_BUNDLE_PATH } from './identifiers.js';
 
 const RENDER_REPORT = new RequestType<RenderReportParams, RenderReportResult, void>(RENDER_REPORT_REQUEST);
 const RESULTS_MARKDOWN = new RequestType<ResultsMarkdownParams, ResultsMarkdownResult, void>(RESULTS_MARKDOWN_REQUEST);
@@ -146,7 +146,7 @@ export class LanguageServerConnection implements vscode.Disposable {
     const serverOptions: ServerOptions = {
       run: { module: serverModule, transport: TransportKind.ipc },
       debug: {
-        module: serverModule,
+        module: this.context.asAbsolutePath(SERVER_DEBUG_BUNDLE_PATH),
         transport: TransportKind.ipc,
         options: { execArgv: ['--nolazy', `--inspect=${SERVER_INSPECTOR_PORT}`] },
       },

@@ -5,7 +5,8 @@
  * untimed start of each to warm the file cache. Reports the median and fastest wall-clock time and each median's
  * ratio to bare Node's. Target (issue 8): the CLI within 4x of bare Node. `runnel check` is timed twice: as it
  * starts after a build or any earlier run (with the code cache the launcher keeps, server/cli-launcher.ts), and as the
- * very first start with no cache (which compiles the whole bundle and writes the cache).
+ * very first start with no cache (which compiles the whole bundle and writes the cache). Then the language server
+ * the same way, from its start to the diagnostics of a sample.
  *
  * The bundle is dist/runnel.cjs (`npm run build`) when it exists, else one built now from the sources with the
  * options of .scripts/build.mjs into a temporary folder; RUNNEL_CLI_BUNDLE=path picks another. RUNNEL_BENCH_RUNS=n
@@ -13,16 +14,19 @@
  * Run with `npm run bench` (all bench modules) or `npm run bench -- cold-start`.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { build } from 'esbuild';
-import { CLI_BANNER, CLI_BUNDLE_FILE, CODE_CACHE_SUFFIX, NODE_BUNDLE_OPTIONS } from '../../.scripts/bundle-options.mjs';
+import { CLI_BANNER, CLI_BUNDLE_FILE, CODE_CACHE_SUFFIX, NODE_BUNDLE_OPTIONS, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
+import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
 
 const ROOT = join(fileURLToPath(import.meta.url), '..', '..', '..');
 const DEFAULT_RUNS = 21;
 const TARGET_RATIO = 4;
+/** Server sessions timed with and without the code cache (each takes about half a second and a stop). */
+const SERVER_RUNS = 11;
 
 interface Subject {
   readonly name: string;
@@ -46,7 +50,7 @@ export async function run(): Promise<void> {
   try {
     const sample = join(ROOT, 'samples', 'roadside-ditches.runnel');
     const linings = join(ROOT, 'samples', 'linings.runnel');
-    // The launcher keeps the bundle's compiled code beside it (server/cli-launcher.ts); the first start after it is
+    // The launcher keeps the bundle's compiled code beside it (server/code-cache.ts); the first start after it is
     // removed compiles everything and writes it again, as the first run after an installation without a build would.
     const codeCache = join(dirname(bundle), `${CLI_BUNDLE_FILE}${CODE_CACHE_SUFFIX}`);
     const subjects: Subject[] = [
@@ -83,6 +87,62 @@ export async function run(): Promise<void> {
   } finally {
     cleanUp();
   }
+  await timeServerStarts(Math.min(runs, SERVER_RUNS));
+}
+
+/**
+ * The language server as the editor starts it (dist/server.cjs, the launcher of server/code-cache.ts): from spawning
+ * it to the diagnostics of one sample over stdio (initialize, initialized, didOpen), with the code cache the server
+ * writes when it exits and without it, interleaved; then the session is closed, untimed.
+ */
+async function timeServerStarts(runs: number): Promise<void> {
+  const { launcher, cleanUp, origin } = await serverLauncher();
+  try {
+    const cache = join(dirname(launcher), `${SERVER_BUNDLE_FILE}${CODE_CACHE_SUFFIX}`);
+    const sample = join(ROOT, 'samples', 'roadside-ditches.runnel');
+    const uri = pathToUri(sample);
+    const text = readFileSync(sample, 'utf8');
+    const session = async (): Promise<number> => {
+      const started = performance.now();
+      const { client } = await TestLanguageClient.start({ serverPath: launcher });
+      try {
+        await client.open(uri, text);
+        await client.diagnostics(uri);
+        return performance.now() - started;
+      } finally {
+        await client.stop();
+      }
+    };
+    await session(); // warms the file cache and writes the code cache, untimed
+    const withCache: number[] = [];
+    const withoutCache: number[] = [];
+    for (let index = 0; index < runs; index++) {
+      withCache.push(await session());
+      rmSync(cache, { force: true });
+      withoutCache.push(await session()); // writes the cache again when it exits
+    }
+    console.log('');
+    console.log(`Language server, start to the first diagnostics of one sample over stdio: ${runs} starts each, interleaved; server: ${origin}`);
+    console.log('');
+    console.log('| server start | median, ms | fastest, ms |');
+    console.log('| --- | ---: | ---: |');
+    console.log(`| with the code cache | ${median(withCache).toFixed(0)} | ${Math.min(...withCache).toFixed(0)} |`);
+    console.log(`| first start (no code cache) | ${median(withoutCache).toFixed(0)} | ${Math.min(...withoutCache).toFixed(0)} |`);
+  } finally {
+    cleanUp();
+  }
+}
+
+async function serverLauncher(): Promise<{ launcher: string; cleanUp: () => void; origin: string }> {
+  const shipped = join(ROOT, 'dist', 'server.cjs');
+  if (existsSync(shipped) && existsSync(join(ROOT, 'dist', SERVER_BUNDLE_FILE))) {
+    return { launcher: shipped, cleanUp: () => undefined, origin: 'dist/server.cjs' };
+  }
+  const folder = mkdtempSync(join(tmpdir(), 'runnel-server-start-'));
+  const launcher = join(folder, 'server.cjs');
+  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'language-server.ts')], outfile: join(folder, SERVER_BUNDLE_FILE) });
+  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'server-launcher.ts')], outfile: launcher });
+  return { launcher, cleanUp: () => rmSync(folder, { recursive: true, force: true }), origin: 'built now from the sources (no dist/server.cjs)' };
 }
 
 /** One start of the subject, wall-clock milliseconds; throws if it fails. */

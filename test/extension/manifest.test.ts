@@ -6,7 +6,8 @@
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { COMMAND_IDS, LANGUAGE_ID, OUTPUT_CHANNEL_NAME, REPORT_VIEW_TYPE, SERVER_BUNDLE_PATH, SETTINGS_SECTION } from '../../extension/identifiers.js';
+import { COMMAND_IDS, LANGUAGE_ID, OUTPUT_CHANNEL_NAME, REPORT_VIEW_TYPE, SERVER_BUNDLE_PATH, SERVER_DEBUG_BUNDLE_PATH, SETTINGS_SECTION } from '../../extension/identifiers.js';
+import { CLI_BUNDLE_FILE, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
 import { EmptyFileSystem } from 'langium';
 import { CRITERION_SETTINGS, readCriterionSetting } from '../../language/analysis/criteria-settings.js';
 import { createRunnelServices } from '../../language/runnel-module.js';
@@ -90,8 +91,10 @@ describe('manifest: entry points and bundles', () => {
     expect(allExtensionSource).toMatch(/export (async )?function deactivate\(/);
   });
 
-  it('the language server the client starts is the bundle the build makes from server/language-server.ts', () => {
-    expect(buildOutputs().get('server/language-server.ts')).toBe(SERVER_BUNDLE_PATH);
+  it('the client starts the launcher the build makes from server/server-launcher.ts, or when debugging the bundle of server/language-server.ts that it runs', () => {
+    expect(buildOutputs().get('server/server-launcher.ts')).toBe(SERVER_BUNDLE_PATH);
+    expect(buildOutputs().get('server/language-server.ts')).toBe(SERVER_DEBUG_BUNDLE_PATH);
+    expect(readText('server/server-launcher.ts')).toMatch(/runWithCodeCache\(join\(dirname\(fileURLToPath\(import\.meta\.url\)\), SERVER_BUNDLE_FILE\)\)/);
   });
 
   it('"npm run package" builds and packages without node_modules (everything is bundled)', () => {
@@ -126,6 +129,7 @@ describe('manifest: entry points and bundles', () => {
     const needed = [
       manifest.main,
       SERVER_BUNDLE_PATH,
+      SERVER_DEBUG_BUNDLE_PATH,
       'README.md',
       'LICENSE',
       ...(manifest.icon === undefined ? [] : [manifest.icon]),
@@ -411,8 +415,10 @@ function typeScriptFilesUnder(folder: string): string[] {
 function buildOutputs(): Map<string, string> {
   const script = readText('.scripts/build.mjs');
   const outputs = new Map<string, string>();
-  for (const match of script.matchAll(/entryPoints: \['([^']+)'\][^}]*?outfile: '([^']+)'/gs)) {
-    if (match[1] !== undefined && match[2] !== undefined) outputs.set(match[1], match[2]);
+  // An outfile is a literal or a template naming a bundle file of .scripts/bundle-options.mjs.
+  const names: Readonly<Record<string, string>> = { CLI_BUNDLE_FILE, SERVER_BUNDLE_FILE };
+  for (const match of script.matchAll(/entryPoints: \['([^']+)'\][^}]*?outfile: ['`]([^'`]+)['`]/gs)) {
+    if (match[1] !== undefined && match[2] !== undefined) outputs.set(match[1], match[2].replace(/\$\{(\w+)\}/g, (_, name: string) => names[name] ?? `<${name}?>`));
   }
   return outputs;
 }

@@ -27,6 +27,8 @@ export interface ClientOptions {
    */
   readonly folderSettings?: Readonly<Record<string, Record<string, unknown>>>;
   readonly capabilities?: ClientCapabilities;
+  /** The server entry to start; the bundle of server-bundle.ts when not given. */
+  readonly serverPath?: string;
 }
 
 interface Waiter {
@@ -95,7 +97,7 @@ export class TestLanguageClient {
 
   /** Spawns the bundled server and sends `initialize` and `initialized`. */
   static async start(options: ClientOptions = {}): Promise<{ client: TestLanguageClient; initializeResult: InitializeResult }> {
-    const bundle = await serverBundle();
+    const bundle = options.serverPath ?? (await serverBundle());
     const child = spawn(process.execPath, [bundle, '--stdio'], { stdio: ['pipe', 'pipe', 'pipe'] });
     const stderr: string[] = [];
     child.stderr?.on('data', (chunk: Buffer) => stderr.push(chunk.toString('utf8')));
