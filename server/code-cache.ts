@@ -15,7 +15,7 @@
 // flags) is replaced at the end of the run. No cache file, an unreadable or unwritable one: the bundle runs as
 // without the launcher. The file lives beside the bundle, where only those who can change the bundle can write.
 import { createHash } from 'node:crypto';
-import { closeSync, openSync, readFileSync, renameSync, rmSync, writeSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname } from 'node:path';
 import { Script } from 'node:vm';
@@ -63,8 +63,7 @@ function writeCodeCache(script: Script, cachePath: string, digest: Buffer): void
     // costs every run nothing but a failed open.
     const file = openSync(temporary, 'wx');
     try {
-      writeSync(file, digest);
-      writeSync(file, script.createCachedData());
+      writeFileSync(file, Buffer.concat([digest, script.createCachedData()]));
     } finally {
       closeSync(file);
     }
