@@ -18,8 +18,8 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { build } from 'esbuild';
-import { CLI_BANNER, CLI_BUNDLE_FILE, CODE_CACHE_SUFFIX, NODE_BUNDLE_OPTIONS, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
+import { CLI_BUNDLE_FILE, CODE_CACHE_SUFFIX, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
+import { placeLauncherPair } from '../server/launcher-pair.js';
 import { TestLanguageClient, pathToUri } from '../server/lsp-client.js';
 
 const ROOT = join(fileURLToPath(import.meta.url), '..', '..', '..');
@@ -139,9 +139,7 @@ async function serverLauncher(): Promise<{ launcher: string; cleanUp: () => void
     return { launcher: shipped, cleanUp: () => undefined, origin: 'dist/server.cjs' };
   }
   const folder = mkdtempSync(join(tmpdir(), 'runnel-server-start-'));
-  const launcher = join(folder, 'server.cjs');
-  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'language-server.ts')], outfile: join(folder, SERVER_BUNDLE_FILE) });
-  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'server-launcher.ts')], outfile: launcher });
+  const { launcher } = await placeLauncherPair(folder, 'server', 'server.cjs');
   return { launcher, cleanUp: () => rmSync(folder, { recursive: true, force: true }), origin: 'built now from the sources (no dist/server.cjs)' };
 }
 
@@ -172,10 +170,8 @@ async function cliBundle(): Promise<{ bundle: string; cleanUp: () => void; origi
     return { bundle: shipped, cleanUp: () => undefined, origin: `dist/runnel.cjs (built ${ageMinutes.toFixed(0)} min ago; run npm run build first for current figures)` };
   }
   const folder = mkdtempSync(join(tmpdir(), 'runnel-cold-start-'));
-  const outfile = join(folder, 'runnel.cjs');
-  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'cli.ts')], outfile: join(folder, CLI_BUNDLE_FILE) });
-  await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(ROOT, 'server', 'cli-launcher.ts')], outfile, banner: CLI_BANNER });
-  return { bundle: outfile, cleanUp: () => rmSync(folder, { recursive: true, force: true }), origin: 'built now from the sources (no dist/runnel.cjs)' };
+  const { launcher } = await placeLauncherPair(folder, 'cli', 'runnel.cjs');
+  return { bundle: launcher, cleanUp: () => rmSync(folder, { recursive: true, force: true }), origin: 'built now from the sources (no dist/runnel.cjs)' };
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) await run();

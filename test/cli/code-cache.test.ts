@@ -7,13 +7,13 @@
  */
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { dirname, join, resolve as resolvePath } from 'node:path';
-import { build } from 'esbuild';
+import { join, resolve as resolvePath } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CLI_BANNER, CLI_BUNDLE_FILE, CODE_CACHE_SUFFIX, NODE_BUNDLE_OPTIONS } from '../../.scripts/bundle-options.mjs';
+import { CODE_CACHE_SUFFIX } from '../../.scripts/bundle-options.mjs';
 import { CAUTION } from '../../language/analysis/provenance.js';
+import { placeLauncherPair } from '../server/launcher-pair.js';
 import { PROCESS_TEST_TIMEOUT_MS, REPOSITORY_ROOT } from './cli-harness.js';
 
 const SAMPLE = join(REPOSITORY_ROOT, 'samples', 'roadside-ditches.runnel');
@@ -26,18 +26,9 @@ let cache: string;
 
 beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), 'runnel-code-cache-'));
-  launcher = join(folder, 'runnel.cjs');
-  bundle = join(folder, CLI_BUNDLE_FILE);
-  cache = `${bundle}${CODE_CACHE_SUFFIX}`;
   const given = process.env['RUNNEL_CLI_BUNDLE'];
-  if (given !== undefined && given !== '') {
-    const shipped = resolvePath(REPOSITORY_ROOT, given);
-    copyFileSync(shipped, launcher);
-    copyFileSync(join(dirname(shipped), CLI_BUNDLE_FILE), bundle);
-  } else {
-    await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(REPOSITORY_ROOT, 'server', 'cli.ts')], outfile: bundle });
-    await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(REPOSITORY_ROOT, 'server', 'cli-launcher.ts')], outfile: launcher, banner: CLI_BANNER });
-  }
+  ({ launcher, bundle } = await placeLauncherPair(folder, 'cli', 'runnel.cjs', given === undefined || given === '' ? undefined : resolvePath(REPOSITORY_ROOT, given)));
+  cache = `${bundle}${CODE_CACHE_SUFFIX}`;
 }, PROCESS_TEST_TIMEOUT_MS);
 
 afterAll(() => rmSync(folder, { recursive: true, force: true }));

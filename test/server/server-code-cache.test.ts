@@ -6,12 +6,12 @@
  * folder), else built from the sources with the shipped options.
  */
 import { createHash } from 'node:crypto';
-import { copyFileSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve as resolvePath } from 'node:path';
-import { build } from 'esbuild';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CODE_CACHE_SUFFIX, NODE_BUNDLE_OPTIONS, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
+import { CODE_CACHE_SUFFIX, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
+import { placeLauncherPair } from './launcher-pair.js';
 import { REPOSITORY_ROOT } from './server-bundle.js';
 import { TestLanguageClient, pathToUri } from './lsp-client.js';
 
@@ -24,17 +24,11 @@ let bundle: string;
 
 beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), 'runnel-server-cache-'));
-  launcher = join(folder, 'server.cjs');
-  bundle = join(folder, SERVER_BUNDLE_FILE);
   const given = process.env['RUNNEL_SERVER_BUNDLE'];
+  // A given server that is not a launcher (no bundle beside it) is ignored: the pair is built from the sources.
   const shipped = given === undefined || given === '' ? undefined : resolvePath(REPOSITORY_ROOT, given);
-  if (shipped !== undefined && statSync(join(dirname(shipped), SERVER_BUNDLE_FILE), { throwIfNoEntry: false }) !== undefined) {
-    copyFileSync(shipped, launcher);
-    copyFileSync(join(dirname(shipped), SERVER_BUNDLE_FILE), bundle);
-  } else {
-    await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(REPOSITORY_ROOT, 'server', 'language-server.ts')], outfile: bundle });
-    await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(REPOSITORY_ROOT, 'server', 'server-launcher.ts')], outfile: launcher });
-  }
+  const isLauncher = shipped !== undefined && existsSync(join(dirname(shipped), SERVER_BUNDLE_FILE));
+  ({ launcher, bundle } = await placeLauncherPair(folder, 'server', 'server.cjs', isLauncher ? shipped : undefined));
 }, TIMEOUT_MS);
 
 afterAll(() => rmSync(folder, { recursive: true, force: true }));
