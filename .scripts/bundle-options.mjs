@@ -24,7 +24,7 @@ export const CLI_BANNER = Object.freeze({ js: `#!/usr/bin/env node\n${IMPORT_MET
 /** The CLI bundle's file, beside the `runnel` launcher (dist/runnel.cjs, server/cli-launcher.ts) that runs it. */
 export const CLI_BUNDLE_FILE = 'runnel-cli.cjs';
 
-/** Suffix of the CLI bundle's code-cache file, kept beside the bundle by the launcher. */
+/** Suffix of a bundle's code-cache file, which its launcher keeps beside it (server/code-cache.ts). */
 export const CODE_CACHE_SUFFIX = '.code-cache';
 
 /** The language server's bundle, beside its launcher (dist/server.cjs, server/server-launcher.ts) that runs it. */

@@ -1,5 +1,6 @@
 /**
- * Starts the bundled Runnel language server (dist/server.cjs, Node IPC; the bundle itself when debugging) and carries Runnel's own requests to it.
+ * Starts the bundled Runnel language server (dist/server.cjs, Node IPC; the bundle itself when debugging) and
+ * carries Runnel's own requests to it.
  * What the user sees: diagnostics, hints, hover and the rest come from the server through the language client;
  * the language status item says whether the server runs; every start, stop and failure is logged to the "Runnel"
  * output channel, which never steals focus. Starting never blocks activation: commands wait for the server.

@@ -1,5 +1,5 @@
-// The `runnel` command line (bundled to dist/runnel.cjs). The polyfill must load first: Langium 4.4 needs
-// Object.groupBy, which Node 20 lacks.
+// The `runnel` command line (bundled to dist/runnel-cli.cjs, which dist/runnel.cjs runs). The polyfill must load
+// first: Langium 4.4 needs Object.groupBy, which Node 20 lacks.
 import '../language/polyfills/object-group-by.cjs';
 import { runCli } from './cli/run-cli.js';
 
