@@ -4,7 +4,8 @@
  * both built from the sources with the shipped options (.scripts/bundle-options.mjs), so the folder can be changed
  * without touching dist/.
  */
-import { copyFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { copyFileSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { build } from 'esbuild';
 import { CLI_BANNER, CLI_BUNDLE_FILE, NODE_BUNDLE_OPTIONS, SERVER_BUNDLE_FILE } from '../../.scripts/bundle-options.mjs';
@@ -33,4 +34,10 @@ export async function placeLauncherPair(folder: string, program: keyof typeof PR
     await build({ ...NODE_BUNDLE_OPTIONS, entryPoints: [join(REPOSITORY_ROOT, 'server', launcherEntry)], outfile: launcher, ...(banner === undefined ? {} : { banner }) });
   }
   return { launcher, bundle };
+}
+
+/** Whether the code-cache file `cachePath` is headed by the SHA-256 of the bundle now at `bundlePath`. */
+export function cacheMadeFrom(cachePath: string, bundlePath: string): boolean {
+  const digest = createHash('sha256').update(readFileSync(bundlePath)).digest();
+  return readFileSync(cachePath).subarray(0, digest.length).equals(digest);
 }
